@@ -1,0 +1,38 @@
+// Lint: TypeScript rules plus the dependency direction of the layout (conventions.md):
+// shared/engine imports nothing of the project outside itself; app/ and shared/ui never import
+// server/; only server/db touches Knex.
+import tseslint from 'typescript-eslint';
+
+const noServer = {
+  group: ['@/server', '@/server/*', '../server/*', '../../server/*', '../../../server/*'],
+  message: 'The client never imports server code.',
+};
+const noKnex = { group: ['knex', 'better-sqlite3'], message: 'Only server/db touches Knex and SQLite.' };
+const noProject = {
+  group: ['@/*', '../../*'],
+  message: 'shared/engine imports nothing of the project outside itself (use relative paths inside it).',
+};
+
+export default tseslint.config(
+  { ignores: ['node_modules/', 'dist/', '.expo/', 'data/', 'coverage/', 'expo-env.d.ts', 'tests/e2e/screenshots/'] },
+  ...tseslint.configs.recommended,
+  {
+    rules: {
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      '@typescript-eslint/no-require-imports': 'off',
+      'no-restricted-imports': ['error', { patterns: [noKnex] }],
+    },
+  },
+  {
+    files: ['shared/engine/**'],
+    rules: { 'no-restricted-imports': ['error', { patterns: [noProject, noKnex, noServer] }] },
+  },
+  {
+    files: ['app/**', 'shared/ui/**', 'shared/api/**'],
+    rules: { 'no-restricted-imports': ['error', { patterns: [noServer, noKnex] }] },
+  },
+  {
+    files: ['server/db/**', 'migrations/**', 'knexfile.ts', 'tests/**'],
+    rules: { 'no-restricted-imports': 'off' },
+  },
+);

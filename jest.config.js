@@ -1,0 +1,41 @@
+/**
+ * Three jest projects: the engine (pure numerics), the server (HTTP over a real SQLite file)
+ * and the UI (jest-expo, react-native-web renderer). Browser tests run separately (tests/e2e).
+ */
+const swc = [
+  '@swc/jest',
+  {
+    jsc: {
+      parser: { syntax: 'typescript', tsx: false },
+      target: 'es2022',
+    },
+    module: { type: 'commonjs' },
+  },
+];
+const alias = { '^@/(.*)$': '<rootDir>/$1' };
+
+module.exports = {
+  projects: [
+    {
+      displayName: 'engine',
+      testEnvironment: 'node',
+      roots: ['<rootDir>/tests/engine'],
+      transform: { '^.+\\.(t|j)sx?$': swc },
+      moduleNameMapper: alias,
+    },
+    {
+      displayName: 'server',
+      testEnvironment: 'node',
+      roots: ['<rootDir>/tests/server'],
+      transform: { '^.+\\.(t|j)sx?$': swc },
+      transformIgnorePatterns: ['/node_modules/(?!(lucia|@lucia-auth|@oslojs)/)'],
+      moduleNameMapper: alias,
+    },
+    {
+      displayName: 'ui',
+      preset: 'jest-expo/web',
+      roots: ['<rootDir>/tests/ui'],
+      moduleNameMapper: alias,
+    },
+  ],
+};
