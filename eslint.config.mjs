@@ -7,7 +7,8 @@ const noServer = {
   group: ['@/server', '@/server/*', '../server/*', '../../server/*', '../../../server/*'],
   message: 'The client never imports server code.',
 };
-const noKnex = { group: ['knex', 'better-sqlite3'], message: 'Only server/db touches Knex and SQLite.' };
+const noKnex = { group: ['knex', 'knex/*', 'better-sqlite3'], message: 'Only server/db touches Knex and SQLite.' };
+const knexPaths = ['knex', 'better-sqlite3'].map((name) => ({ name, message: noKnex.message }));
 const noProject = {
   group: ['@/*', '../../*'],
   message: 'shared/engine imports nothing of the project outside itself (use relative paths inside it).',
@@ -20,16 +21,16 @@ export default tseslint.config(
     rules: {
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       '@typescript-eslint/no-require-imports': 'off',
-      'no-restricted-imports': ['error', { patterns: [noKnex] }],
+      'no-restricted-imports': ['error', { paths: knexPaths }],
     },
   },
   {
     files: ['shared/engine/**'],
-    rules: { 'no-restricted-imports': ['error', { patterns: [noProject, noKnex, noServer] }] },
+    rules: { 'no-restricted-imports': ['error', { paths: knexPaths, patterns: [noProject, noServer] }] },
   },
   {
     files: ['app/**', 'shared/ui/**', 'shared/api/**'],
-    rules: { 'no-restricted-imports': ['error', { patterns: [noServer, noKnex] }] },
+    rules: { 'no-restricted-imports': ['error', { paths: knexPaths, patterns: [noServer] }] },
   },
   {
     files: ['server/db/**', 'migrations/**', 'knexfile.ts', 'tests/**'],

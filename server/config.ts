@@ -1,0 +1,87 @@
+/**
+ * The server's configuration: one typed schema read from the environment at start. A bad value
+ * stops the process with a message naming the variable (see main.ts).
+ */
+import path from 'node:path';
+import { z } from 'zod';
+
+const bool = z
+  .enum(['true', 'false', '1', '0', 'yes', 'no'])
+  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+const port = z.coerce.number().int().min(0).max(65535);
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: port.default(8080),
+  PUBLIC_URL: z.string().url().optional(),
+  DATA_DIR: z.string().min(1).default('data'),
+  DATABASE_FILE: z.string().min(1).optional(),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  SESSION_IDLE_HOURS: z.coerce.number().positive().max(24 * 30).default(12),
+  SESSION_ABSOLUTE_HOURS: z.coerce.number().positive().max(24 * 90).default(24 * 7),
+  SMTP_HOST: z.string().min(1).optional(),
+  SMTP_PORT: port.optional(),
+  SMTP_SECURE: bool.default(false),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAIL_FROM: z.string().min(3).default('Plumbline <plumbline@harborridge.test>'),
+  FAKE_SMTP_PORT: port.default(2525),
+  DEMO_SEED: bool.default(true),
+  DEMO_PASSWORD: z.string().min(12, 'must be at least 12 characters').default('plumb-line-demo-2026'),
+  STUDY_WORKERS: z.coerce.number().int().min(1).max(16).default(2),
+  WEB_DIR: z.string().min(1).default('dist/web'),
+});
+
+export interface Config {
+  env: 'development' | 'production' | 'test';
+  host: string;
+  port: number;
+  publicUrl: string;
+  dataDir: string;
+  databaseFile: string;
+  logLevel: z.infer<typeof envSchema>['LOG_LEVEL'];
+  session: { idleHours: number; absoluteHours: number };
+  /** Real SMTP when host is set; otherwise the local fake server on fakePort. */
+  mail: {
+    from: string;
+    smtp: { host: string; port: number; secure: boolean; user?: string; password?: string } | null;
+    fakePort: number;
+  };
+  demo: { seed: boolean; password: string };
+  studyWorkers: number;
+  webDir: string;
+}
+
+export class ConfigError extends Error {}
+
+/** Reads and checks the configuration; throws ConfigError naming every bad variable. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, cwd = process.cwd()): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => {
+      const name = String(i.path[0]);
+      return `${name}=${JSON.stringify(env[name] ?? '')}: ${i.message}`;
+    });
+    throw new ConfigError(`Invalid configuration:\n  ${lines.join('\n  ')}`);
+  }
+  const e = parsed.data;
+  const dataDir = path.resolve(cwd, e.DATA_DIR);
+  const smtp = e.SMTP_HOST
+    ? { host: e.SMTP_HOST, port: e.SMTP_PORT ?? 587, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD }
+    : null;
+  return {
+    env: e.NODE_ENV,
+    host: e.HOST,
+    port: e.PORT,
+    publicUrl: (e.PUBLIC_URL ?? `http://localhost:${e.PORT}`).replace(/\/$/, ''),
+    dataDir,
+    databaseFile: e.DATABASE_FILE === ':memory:' ? ':memory:' : path.resolve(dataDir, e.DATABASE_FILE ?? 'plumbline.sqlite'),
+    logLevel: e.LOG_LEVEL,
+    session: { idleHours: e.SESSION_IDLE_HOURS, absoluteHours: e.SESSION_ABSOLUTE_HOURS },
+    mail: { from: e.MAIL_FROM, smtp, fakePort: e.FAKE_SMTP_PORT },
+    demo: { seed: e.DEMO_SEED, password: e.DEMO_PASSWORD },
+    studyWorkers: e.STUDY_WORKERS,
+    webDir: path.resolve(cwd, e.WEB_DIR),
+  };
+}

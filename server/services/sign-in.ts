@@ -1,0 +1,67 @@
+/**
+ * Signing in: one answer for unknown e-mails and wrong passwords, a rate limit per address and
+ * per client, and a new session every time (the old one, if any, is dropped: session rotation).
+ */
+import type { Auth } from '../auth/lucia';
+import { decoyHash, verifyPassword } from '../auth/password';
+import type { Db } from '../db/knex';
+import { findUserByEmail, findUserById, listMemberships } from '../db/users';
+import { AppError } from '../errors';
+import type { MeResponse, SignInRequest } from '@/shared/api/auth';
+
+const WINDOW_MS = 15 * 60_000;
+const MAX_FAILURES = 8;
+
+/** Failed attempts per key within a sliding window; kept in memory (one server process). */
+export class AttemptLimiter {
+  private failures = new Map<string, number[]>();
+  constructor(private readonly max = MAX_FAILURES, private readonly windowMs = WINDOW_MS) {}
+
+  blocked(key: string, now = Date.now()): boolean {
+    return this.recent(key, now).length >= this.max;
+  }
+  fail(key: string, now = Date.now()): void {
+    this.failures.set(key, [...this.recent(key, now), now]);
+  }
+  clear(key: string): void {
+    this.failures.delete(key);
+  }
+  private recent(key: string, now: number): number[] {
+    return (this.failures.get(key) ?? []).filter((t) => now - t < this.windowMs);
+  }
+}
+
+const wrongCredentials = () => new AppError(401, 'wrong_credentials', 'E-mail or password is not right.');
+
+export async function signIn(
+  deps: { db: Db; auth: Auth; limiter: AttemptLimiter },
+  input: SignInRequest,
+  client: { ip: string; previousSessionId?: string },
+): Promise<{ sessionId: string; me: MeResponse }> {
+  const keys = [`email:${input.email}`, `ip:${client.ip}`];
+  if (keys.some((k) => deps.limiter.blocked(k))) {
+    throw new AppError(429, 'too_many_attempts', 'Too many failed sign-in attempts. Wait 15 minutes and try again.');
+  }
+  const user = await findUserByEmail(deps.db, input.email);
+  const ok = user?.password_hash
+    ? await verifyPassword(user.password_hash, input.password)
+    : (await verifyPassword(await decoyHash(), input.password), false);
+  if (!user || !ok) {
+    keys.forEach((k) => deps.limiter.fail(k));
+    throw wrongCredentials();
+  }
+  keys.forEach((k) => deps.limiter.clear(k));
+  if (client.previousSessionId) await deps.auth.invalidateSession(client.previousSessionId);
+  const session = await deps.auth.createSession(user.id, { createdAt: Date.now() });
+  return { sessionId: session.id, me: await describeUser(deps.db, user.id) };
+}
+
+export async function describeUser(db: Db, userId: string): Promise<MeResponse> {
+  const user = await findUserById(db, userId);
+  if (!user) throw new AppError(401, 'unauthorised', 'Sign in to continue.');
+  const memberships = await listMemberships(db, userId);
+  return {
+    user: { id: user.id, email: user.email, displayName: user.display_name },
+    memberships: memberships.map((m) => ({ labId: m.lab_id, labName: m.lab_name, role: m.role })),
+  };
+}

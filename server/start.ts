@@ -1,0 +1,57 @@
+/**
+ * Starts a whole Plumbline server from a config: database (migrated), demo lab (seeded once),
+ * mail (fake SMTP unless a real relay is configured) and HTTP. Used by main.ts and the tests.
+ */
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { createApp } from './app';
+import { createAuth } from './auth/lucia';
+import type { Config } from './config';
+import { createDb, migrate, type Db } from './db/knex';
+import { createLogger, type Logger } from './logger';
+import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
+import { createMailer, type Mailer } from './mail/mailer';
+import { seedDemoLab } from './seed/demo-lab';
+import { APP_VERSION } from './version';
+
+export interface RunningServer {
+  url: string;
+  db: Db;
+  logger: Logger;
+  mailer: Mailer;
+  fakeSmtp: FakeSmtp | null;
+  close(): Promise<void>;
+}
+
+export async function startServer(config: Config, logger = createLogger(config.logLevel)): Promise<RunningServer> {
+  const db = createDb(config.databaseFile);
+  await migrate(db);
+  if (config.demo.seed && (await seedDemoLab(db, config.demo.password))) logger.info('demo lab seeded');
+
+  const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.fakePort);
+  const smtp = config.mail.smtp ?? { host: '127.0.0.1', port: fakeSmtp!.port, secure: false };
+  const mailer = createMailer({ db, logger }, smtp, config.mail.from);
+
+  const auth = createAuth(db, { idleHours: config.session.idleHours, secure: config.publicUrl.startsWith('https:') });
+  const app = createApp({ config, db, auth, logger, version: APP_VERSION });
+  const server = http.createServer(app);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(config.port, config.host, () => resolve());
+  });
+  const { port } = server.address() as AddressInfo;
+  const url = `http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port}`;
+
+  let closing: Promise<void> | null = null;
+  const close = () =>
+    (closing ??= (async () => {
+      await new Promise<void>((resolve) => {
+        server.close(() => resolve());
+        server.closeAllConnections();
+      });
+      mailer.close();
+      await fakeSmtp?.close();
+      await db.destroy();
+    })());
+  return { url, db, logger, mailer, fakeSmtp, close };
+}

@@ -1,0 +1,1 @@
+export const APP_VERSION: string = require('../package.json').version;
