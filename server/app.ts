@@ -12,15 +12,16 @@ import type { Config } from './config';
 import type { Db } from './db/knex';
 import { AppError } from './errors';
 import type { Logger } from './logger';
-import { authRoutes } from './routes/auth';
 import { healthRoutes } from './routes/health';
-import { AttemptLimiter } from './services/sign-in';
+import { v1Routes } from './routes';
+import type { Mailer } from './mail/mailer';
 
 export interface AppDeps {
   config: Config;
   db: Db;
   auth: Auth;
   logger: Logger;
+  mailer: Mailer;
   version: string;
 }
 
@@ -48,8 +49,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(loadSession(deps.auth, deps.config.session.absoluteHours));
   api.use(checkOrigin(deps.config.publicUrl));
   api.use(healthRoutes(deps));
-  const limiter = new AttemptLimiter();
-  api.use('/v1', authRoutes({ ...deps, limiter }));
+  api.use('/v1', v1Routes(deps));
   api.use((req) => {
     throw new AppError(404, 'not_found', `No API route for ${req.method} ${req.originalUrl}.`);
   });

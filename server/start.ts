@@ -33,7 +33,7 @@ export async function startServer(config: Config, logger = createLogger(config.l
   const mailer = createMailer({ db, logger }, smtp, config.mail.from);
 
   const auth = createAuth(db, { idleHours: config.session.idleHours, secure: config.publicUrl.startsWith('https:') });
-  const app = createApp({ config, db, auth, logger, version: APP_VERSION });
+  const app = createApp({ config, db, auth, logger, mailer, version: APP_VERSION });
   const server = http.createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
