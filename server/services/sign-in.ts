@@ -10,15 +10,18 @@ import { AppError } from '../errors';
 import type { MeResponse, SignInRequest } from '@/shared/api/auth';
 
 const WINDOW_MS = 15 * 60_000;
-const MAX_FAILURES = 8;
+/** Failures allowed per e-mail address, and per client address (several people may share one). */
+export const MAX_FAILURES_PER_ACCOUNT = 8;
+export const MAX_FAILURES_PER_CLIENT = 40;
 
 /** Failed attempts per key within a sliding window; kept in memory (one server process). */
 export class AttemptLimiter {
   private failures = new Map<string, number[]>();
-  constructor(private readonly max = MAX_FAILURES, private readonly windowMs = WINDOW_MS) {}
+  constructor(private readonly windowMs = WINDOW_MS) {}
 
   blocked(key: string, now = Date.now()): boolean {
-    return this.recent(key, now).length >= this.max;
+    const max = key.startsWith('ip:') ? MAX_FAILURES_PER_CLIENT : MAX_FAILURES_PER_ACCOUNT;
+    return this.recent(key, now).length >= max;
   }
   fail(key: string, now = Date.now()): void {
     this.failures.set(key, [...this.recent(key, now), now]);
@@ -50,7 +53,7 @@ export async function signIn(
     keys.forEach((k) => deps.limiter.fail(k));
     throw wrongCredentials();
   }
-  keys.forEach((k) => deps.limiter.clear(k));
+  deps.limiter.clear(keys[0]);
   if (client.previousSessionId) await deps.auth.invalidateSession(client.previousSessionId);
   const session = await deps.auth.createSession(user.id, { createdAt: Date.now() });
   return { sessionId: session.id, me: await describeUser(deps.db, user.id) };
