@@ -1,0 +1,14 @@
+/**
+ * Public API of the verification engine. Everything the server, the CLI and the client use from
+ * shared/engine is re-exported here; modules import each other by relative path.
+ */
+export * from './types';
+export * from './errors';
+export * from './version';
+
+export * from './scores/line-scores';
+export * from './scores/modes';
+export * from './scores/statistics';
+export * from './scores/monte-carlo';
+export * from './scores/mode-aggregate';
+export * from './scores/criteria';
