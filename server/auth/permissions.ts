@@ -1,0 +1,169 @@
+/**
+ * The one permission table of the API, the middleware that enforces it, and the route registry.
+ *
+ * How to add a lab-scoped route (every route under /api/v1/labs/:labId/... goes this way):
+ *
+ *   const r = Router();
+ *   labRoute(r, deps.db, {
+ *     method: 'get', path: '/labs/:labId/systems', action: 'systems.read',
+ *     summary: 'List the systems of a lab', query: systemListQuerySchema, response: systemListSchema,
+ *   }, async (req, res) => { ... req.lab!.id, req.lab!.role, req.user!.id ... });
+ *
+ * and mount the router in server/routes/index.ts with `r.use(yourRoutes(deps))` and NO path prefix,
+ * so that the path registered here is the path Express serves (a test compares the two).
+ * Routes outside a lab (sign-in, accepting an invitation, /me) use `openRoute` with
+ * access 'public' or 'signed-in'.
+ *
+ * `requireLabRole(db, action)` answers, in this order:
+ *   401 without a session; 404 when the lab does not exist or the user is not a member of it
+ *   (so nothing of one lab is visible from another, not even that it exists); 403 when the user's
+ *   role in that lab lacks the action. Otherwise it sets `req.lab = { id, role }` and continues.
+ *
+ * Every registration lands in `routeRegistry` (method + path → spec), which the OpenAPI document
+ * (server/openapi.ts) and the route × role test read. Registration is idempotent, so building the
+ * app twice (tests) does not duplicate entries.
+ */
+import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
+import type { z } from 'zod';
+import type { Role } from '@/shared/api/auth';
+import type { Db } from '../db/knex';
+import { AppError, forbidden, unauthorised } from '../errors';
+import { requireUser } from './middleware';
+
+export const ROLES = ['admin', 'analyst', 'reviewer', 'auditor'] as const satisfies readonly Role[];
+
+const A: Role[] = ['admin'];
+const ALL: Role[] = ['admin', 'analyst', 'reviewer', 'auditor'];
+const BUILDERS: Role[] = ['analyst'];
+const AUDIT: Role[] = ['admin', 'auditor'];
+
+/**
+ * Action → roles allowed. Admin: people, roles, lab settings, mail, audit, and reads everything.
+ * Analyst: builds and runs (systems, scenarios, recipes, studies, uploads). Reviewer: reads what an
+ * analyst reads, plus review decisions. Auditor: reads everything, including the audit trail.
+ */
+export const PERMISSIONS = {
+  // people and the lab
+  'members.read': ALL,
+  'members.invite': A,
+  'members.change-role': A,
+  'members.remove': A,
+  'invitations.read': A,
+  'invitations.revoke': A,
+  'lab.read': ALL,
+  'lab.settings': A,
+  'mail.read': A,
+  'audit.read': AUDIT,
+  'audit.export': AUDIT,
+  // resources
+  'systems.read': ALL,
+  'systems.write': BUILDERS,
+  'scenarios.read': ALL,
+  'scenarios.write': BUILDERS,
+  'recipes.read': ALL,
+  'recipes.write': BUILDERS,
+  'studies.read': ALL,
+  'studies.start': BUILDERS,
+  'studies.cancel': BUILDERS,
+  'uploads.read': ALL,
+  'uploads.write': BUILDERS,
+  'exports.read': ALL,
+  // review (decisions on others' work; the "not your own work" rule lives in the review service)
+  'reviews.submit': BUILDERS,
+  'reviews.decide': ['reviewer'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Action = keyof typeof PERMISSIONS;
+export const ACTIONS = Object.keys(PERMISSIONS) as Action[];
+
+/** Whether a role may perform an action. */
+export function can(role: Role, action: Action): boolean {
+  return (PERMISSIONS[action] as readonly Role[]).includes(role);
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    /** Set by requireLabRole: the lab of the path and the signed-in user's role in it. */
+    lab?: { id: string; role: Role };
+  }
+}
+
+/** The answer for a lab that does not exist and for one the user is not a member of: the same. */
+export const labNotFound = () => new AppError(404, 'not_found', 'This lab was not found.');
+
+/** Middleware for /api/v1/labs/:labId/...: 401 / 404 / 403 as described at the top. */
+export function requireLabRole(db: Db, action: Action): RequestHandler {
+  if (!(action in PERMISSIONS)) throw new Error(`Unknown action "${action}"`);
+  return async (req: Request, _res: Response, next: NextFunction) => {
+    if (!req.user) throw unauthorised();
+    const labId = String(req.params.labId ?? '');
+    const row = await db('memberships').where({ lab_id: labId, user_id: req.user.id }).first('role');
+    if (!row) throw labNotFound();
+    const role = row.role as Role;
+    if (!can(role, action)) throw forbidden(`Your role in this lab (${role}) does not allow ${action}.`);
+    req.lab = { id: labId, role };
+    next();
+  };
+}
+
+export type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+/** One route of /api/v1, as the registry keeps it. Paths are Express paths relative to /api/v1. */
+export interface RouteSpec {
+  method: HttpMethod;
+  path: string;
+  /** A lab action, or who may call a route outside a lab. */
+  action: Action | 'public' | 'signed-in';
+  summary: string;
+  tag?: string;
+  body?: z.ZodType;
+  query?: z.ZodType;
+  response?: z.ZodType;
+  /** Success status, 200 unless said (201 created, 204 no content). */
+  status?: number;
+  /** Media type of the success answer when it is not JSON (e.g. 'text/csv', 'text/event-stream'). */
+  produces?: string;
+}
+
+export const routeRegistry = new Map<string, RouteSpec>();
+const routeKey = (method: string, path: string) => `${method.toUpperCase()} ${path}`;
+
+function register(spec: RouteSpec) {
+  const key = routeKey(spec.method, spec.path);
+  const known = routeRegistry.get(key);
+  if (known && known.action !== spec.action) throw new Error(`Route ${key} registered twice with different actions`);
+  routeRegistry.set(key, spec);
+}
+
+/** Finds the registered spec of a mounted route. */
+export function findRoute(method: string, path: string): RouteSpec | undefined {
+  return routeRegistry.get(routeKey(method, path));
+}
+
+/** Registers and mounts a lab-scoped route behind requireLabRole(db, spec.action). */
+export function labRoute(
+  router: Router,
+  db: Db,
+  spec: RouteSpec & { action: Action },
+  ...handlers: RequestHandler[]
+): void {
+  if (!spec.path.startsWith('/labs/:labId')) throw new Error(`labRoute ${spec.path} must start with /labs/:labId`);
+  register({ tag: tagOf(spec.path), ...spec });
+  router[spec.method](spec.path, requireLabRole(db, spec.action), ...handlers);
+}
+
+/** Registers and mounts a route outside a lab: 'public', or 'signed-in' (401 without a session). */
+export function openRoute(
+  router: Router,
+  spec: RouteSpec & { action: 'public' | 'signed-in' },
+  ...handlers: RequestHandler[]
+): void {
+  register({ tag: tagOf(spec.path), ...spec });
+  if (spec.action === 'signed-in') router[spec.method](spec.path, requireUser, ...handlers);
+  else router[spec.method](spec.path, ...handlers);
+}
+
+function tagOf(path: string): string {
+  const parts = path.split('/').filter((p) => p && !p.startsWith(':'));
+  return (parts[0] === 'labs' ? parts[1] ?? 'labs' : parts[0]) ?? 'api';
+}
