@@ -6,9 +6,20 @@ export * from './types';
 export * from './errors';
 export * from './version';
 
+export * from './fft';
+export * from './windows';
+export * from './detrend';
+export * from './welch';
+export * from './estimators';
+export * from './random-errors';
+export * from './recipe';
+export * from './transient';
+export * from './process';
+
 export * from './scores/line-scores';
 export * from './scores/modes';
 export * from './scores/statistics';
 export * from './scores/monte-carlo';
 export * from './scores/mode-aggregate';
 export * from './scores/criteria';
+export * from './scores/resolution-bias';
