@@ -35,6 +35,14 @@ module.exports = {
       displayName: 'ui',
       preset: 'jest-expo/web',
       roots: ['<rootDir>/tests/ui'],
+      // The project has no babel.config.js (Metro uses babel-preset-expo by default), so the
+      // preset's babel-jest transform is given the preset explicitly.
+      transform: {
+        '\\.[jt]sx?$': [
+          'babel-jest',
+          { presets: ['babel-preset-expo'], caller: { name: 'metro', bundler: 'metro', platform: 'web' } },
+        ],
+      },
       moduleNameMapper: alias,
     },
   ],

@@ -1,0 +1,5 @@
+import { AboutScreen } from '@/shared/ui/screens/about/about-screen';
+
+export default function AboutRoute() {
+  return <AboutScreen />;
+}

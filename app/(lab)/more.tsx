@@ -1,0 +1,5 @@
+import { MoreScreen } from '@/shared/ui/screens/more/more-screen';
+
+export default function MoreRoute() {
+  return <MoreScreen />;
+}

@@ -1,0 +1,5 @@
+import { NotFoundScreen } from '@/shared/ui/screens/not-found/not-found-screen';
+
+export default function NotFound() {
+  return <NotFoundScreen />;
+}

@@ -1,0 +1,63 @@
+import { StyleSheet, View } from 'react-native';
+import type { MeResponse } from '@/shared/api/auth';
+import { errorText } from '@/shared/ui/api/client';
+import { useSignOut } from '@/shared/ui/api/use-session';
+import { AppText, Button, PlumbMark } from '@/shared/ui/components';
+import { colors, layout, space, stroke } from '@/shared/ui/theme';
+
+const roleWords = { admin: 'Lab admin', analyst: 'Analyst', reviewer: 'Reviewer', auditor: 'Auditor' } as const;
+
+/** The signed-in header: which lab, who is signed in, and the way out. */
+export function ShellHeader({ me, showBrand }: { me: MeResponse; showBrand: boolean }) {
+  const signOut = useSignOut();
+  const membership = me.memberships[0];
+  return (
+    <View role="banner" style={styles.header}>
+      <View style={styles.row}>
+        {showBrand ? <PlumbMark height={32} /> : null}
+        <View style={styles.who}>
+          <AppText variant="label" tone="muted" numberOfLines={1} testID="header-lab">
+            {membership ? membership.labName : 'No lab yet'}
+          </AppText>
+          <AppText variant="bodyStrong" numberOfLines={1} testID="header-user">
+            {me.user.displayName}
+            {membership ? (
+              <AppText variant="small" tone="muted">
+                {'  '}
+                {roleWords[membership.role]}
+              </AppText>
+            ) : null}
+          </AppText>
+        </View>
+        <Button
+          label="Sign out"
+          variant="secondary"
+          compact
+          busy={signOut.isPending}
+          busyLabel="Signing out…"
+          onPress={() => signOut.mutate()}
+        />
+      </View>
+      {signOut.isError ? (
+        <AppText variant="small" tone="fail" role="alert">
+          {`Sign-out did not go through: ${errorText(signOut.error)}`}
+        </AppText>
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  header: {
+    minHeight: layout.headerHeight,
+    justifyContent: 'center',
+    paddingHorizontal: space.lg,
+    paddingVertical: space.sm,
+    gap: space.xs,
+    backgroundColor: colors.surface,
+    borderBottomWidth: stroke.rule,
+    borderBottomColor: colors.border,
+  },
+  row: { flexDirection: 'row', alignItems: 'center', gap: space.md },
+  who: { flex: 1, minWidth: 0 },
+});

@@ -1,0 +1,5 @@
+import { AreaOverview } from '../area/area-overview';
+
+export function ReviewsScreen() {
+  return <AreaOverview area="reviews" />;
+}

@@ -1,0 +1,5 @@
+import { AreaOverview } from '../area/area-overview';
+
+export function ScenariosScreen() {
+  return <AreaOverview area="scenarios" />;
+}
