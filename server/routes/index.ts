@@ -4,10 +4,24 @@
 import { Router } from 'express';
 import type { AppDeps } from '../app';
 import { AttemptLimiter } from '../services/sign-in';
+import { auditRoutes } from './audit';
 import { authRoutes } from './auth';
+import { invitationRoutes } from './invitations';
+import { labRoutes } from './labs';
+import { mailRoutes } from './mail';
+import { openApiRoutes } from './openapi';
+import { passwordResetRoutes } from './password-reset';
+import { peopleRoutes } from './people';
 
 export function v1Routes(deps: AppDeps): Router {
   const r = Router();
   r.use(authRoutes({ ...deps, limiter: new AttemptLimiter() }));
+  r.use(passwordResetRoutes(deps));
+  r.use(invitationRoutes(deps));
+  r.use(labRoutes(deps));
+  r.use(peopleRoutes(deps));
+  r.use(mailRoutes(deps));
+  r.use(auditRoutes(deps));
+  r.use(openApiRoutes(deps));
   return r;
 }
