@@ -3,10 +3,8 @@
 import { expect, openPage, screenshot, signIn, type Harness, type ViewportName } from './harness';
 
 async function fontInUse(page: import('playwright-core').Page, label: string): Promise<string> {
-  return page.getByRole('button', { name: label }).evaluate((el) => {
-    const inner = el.querySelector('div[dir], span, div') ?? el;
-    return getComputedStyle(inner as Element).fontFamily;
-  });
+  const text = page.getByRole('button', { name: label }).getByText(label, { exact: true }).first();
+  return text.evaluate((el) => getComputedStyle(el).fontFamily);
 }
 
 function journey(viewport: ViewportName) {
