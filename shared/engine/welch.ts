@@ -144,8 +144,14 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
   const blocks = o.blockStarts.length;
   if (blocks < 1) throw new EngineInputError('blocks', blocks, 'must be ≥ 1');
   const n = o.inputWindow.length;
-  const wx = o.inputWindow;
-  const wy = o.outputWindow;
+  // Two-for-one packing adds rounding error of order ε·|larger channel| to both spectra, so a
+  // channel 1e-6 times the other (metres against newtons) would lose six digits. Scaling each
+  // channel by a power of two (exact in binary floating point) to a peak near 1 avoids that; the
+  // scales are folded into the window copies and divided out exactly at the end.
+  const gx = powerOfTwoScale(x);
+  const gy = powerOfTwoScale(y);
+  const wx = o.inputWindow.map((v) => v * gx);
+  const wy = o.outputWindow.map((v) => v * gy);
   const paired = new PairedRealFft(n);
   const lines = paired.lines;
   const { input, xRe, xIm, yRe, yIm } = paired;
@@ -198,10 +204,10 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
   const frequenciesHz = new Float64Array(lines);
   for (let k = 0; k < lines; k++) {
     const s = k === 0 || k === lines - 1 ? scale : 2 * scale;
-    sxx[k] *= s;
-    syy[k] *= s;
-    syxRe[k] *= s;
-    syxIm[k] *= s;
+    sxx[k] *= s / (gx * gx);
+    syy[k] *= s / (gy * gy);
+    syxRe[k] *= s / (gx * gy);
+    syxIm[k] *= s / (gx * gy);
     frequenciesHz[k] = (k * o.sampleRateHz) / n;
   }
   return {
@@ -213,6 +219,17 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
     effectiveAverages: blocks,
     warnings: [],
   };
+}
+
+/** 2^−e with 2^e the power of two nearest the peak |v|, or 1 for an all-zero channel. */
+function powerOfTwoScale(v: Float64Array): number {
+  let peak = 0;
+  for (let i = 0; i < v.length; i++) {
+    const a = v[i] < 0 ? -v[i] : v[i];
+    if (a > peak) peak = a;
+  }
+  if (peak === 0) return 1;
+  return 2 ** -Math.round(Math.log2(peak));
 }
 
 function requireSameLength(x: Float64Array, y: Float64Array): void {

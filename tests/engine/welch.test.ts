@@ -1,0 +1,199 @@
+/**
+ * Welch cross-spectra: SciPy golden vectors, Parseval, a sine peak, identities, Welch's overlap
+ * variance formula by Monte Carlo, and every validation branch.
+ */
+import { effectiveAverages, welchCrossSpectra, type WelchOptions } from '@/shared/engine/welch';
+import { overlapCorrelation, windowSamples } from '@/shared/engine/windows';
+import { EngineInputError } from '@/shared/engine/errors';
+import type { Detrend, SpectrumScaling, WindowName } from '@/shared/engine/types';
+import {
+  gaussianNoise,
+  loadScipyFixture,
+  scipyCases,
+  spectraForCase,
+  type ScipyFile,
+  maxComplexRelativeDifference,
+  maxRelativeDifference,
+  meanAndVariance,
+  scipySignals,
+} from './spectra-helpers';
+
+const TOLERANCE = 1e-10; // engine.md: agree with SciPy to ≤ 1e-10 relative
+
+describe('Welch spectra against SciPy welch / csd / coherence', () => {
+  // Source: SciPy scipy.signal.welch, csd, coherence; fixtures and their seed/version from
+  // tests/fixtures/scipy/make-fixtures.py. scipy csd(x, y) = mean conj(X)·Y = our Gyx.
+  it('fixtures were made by SciPy with the recorded seed', () => {
+    const f = loadScipyFixture<ScipyFile>('welch-windows.json');
+    expect(f.scipy).toMatch(/^1\.\d+/);
+    expect(f.seed).toBe(20261201);
+  });
+  it.each(scipyCases())('%s', (_label, c) => {
+    const s = spectraForCase(c);
+    expect(s.blocks).toBe(c.blocks);
+    expect(maxRelativeDifference(s.frequenciesHz, c.frequenciesHz)).toBeLessThanOrEqual(TOLERANCE);
+    expect(maxRelativeDifference(s.gxx, c.gxx)).toBeLessThanOrEqual(TOLERANCE);
+    expect(maxRelativeDifference(s.gyy, c.gyy)).toBeLessThanOrEqual(TOLERANCE);
+    expect(maxComplexRelativeDifference(s.gyx.re, s.gyx.im, c.gyxRe, c.gyxIm)).toBeLessThanOrEqual(TOLERANCE);
+  });
+});
+
+describe('analytic truths', () => {
+  it("Parseval: white noise of variance σ² has one-sided PSD 2σ²/fs", () => {
+    // Parseval's theorem. Averaged over 0 < f < fs/2 the estimate's mean is exactly unbiased for
+    // white noise; its relative scatter over M lines of n_d averages is ~1/sqrt(M·n_d).
+    const sigma = 0.7;
+    const fs = 2000;
+    const x = gaussianNoise('parseval', 1 << 16, sigma);
+    const s = welchCrossSpectra(x, x, { sampleRateHz: fs, blockLength: 512, window: 'hann', overlap: 0.5, detrend: 'none', scaling: 'density' });
+    const interior = s.gxx.slice(1, -1);
+    const { mean } = meanAndVariance(interior);
+    const expected = (2 * sigma * sigma) / fs;
+    // ±5 standard errors of the line mean (n_d ≈ 240, 255 lines; Hann lines correlate, so allow 2x).
+    const standardError = 2 / Math.sqrt(interior.length * s.effectiveAverages);
+    expect(Math.abs(mean / expected - 1)).toBeLessThan(5 * standardError);
+  });
+
+  it('Parseval, exactly: with a rectangular window Σ_k Gxx[k]·Δf equals the mean square', () => {
+    // Parseval for one block: Σ_n x² = (1/N) Σ_k |X[k]|²; the one-sided density sums back to it.
+    const x = gaussianNoise('parseval-exact', 1024);
+    const s = welchCrossSpectra(x, x, { sampleRateHz: 100, blockLength: 1024, window: 'rectangular', overlap: 0, detrend: 'none', scaling: 'density' });
+    const total = s.gxx.reduce((a, v) => a + v, 0) * (100 / 1024);
+    const meanSquare = x.reduce((a, v) => a + v * v, 0) / x.length;
+    expect(total).toBeCloseTo(meanSquare, 12);
+  });
+
+  it.each(['rectangular', 'hann', 'flattop', 'blackman-harris'] as WindowName[])(
+    "sine of amplitude A on a line: 'spectrum' scaling peaks at A²/2 (%s)",
+    (window) => {
+      // Analytic: a window's transform at the tone's own line is A/2·Σw, so (A/2·Σw)²/(Σw)²·2 = A²/2.
+      const n = 256;
+      const fs = 1024;
+      const amplitude = 2.5;
+      const line = 40;
+      const x = new Float64Array(8 * n).map((_, i) => amplitude * Math.sin((2 * Math.PI * line * i) / n + 0.3));
+      const s = welchCrossSpectra(x, x, { sampleRateHz: fs, blockLength: n, window, overlap: 0.5, detrend: 'none', scaling: 'spectrum' });
+      expect(s.frequenciesHz[line]).toBe((line * fs) / n);
+      expect(s.gxx[line]).toBeCloseTo((amplitude * amplitude) / 2, 10);
+    },
+  );
+});
+
+describe('identities', () => {
+  const { x, y, sampleRateHz } = scipySignals();
+  const o: WelchOptions = { sampleRateHz, blockLength: 256, window: 'hamming', overlap: 0.75, detrend: 'linear', scaling: 'density' };
+  it('welch(x) = csd(x, x): Gyx of (x, x) is Gxx, real', () => {
+    const s = welchCrossSpectra(x, x, o);
+    expect(maxRelativeDifference(s.gyx.re, s.gxx)).toBeLessThan(1e-15);
+    // Two-for-one packing separates X and Y by different sums, so Im is zero only to rounding.
+    expect(s.gyx.im.every((v, k) => Math.abs(v) <= 1e-15 * s.gxx[k])).toBe(true);
+    expect(maxRelativeDifference(s.gyy, s.gxx)).toBeLessThan(1e-14);
+  });
+  it('swapping channels conjugates Gyx', () => {
+    const a = welchCrossSpectra(x, y, o);
+    const b = welchCrossSpectra(y, x, o);
+    expect(maxComplexRelativeDifference(b.gyx.re, b.gyx.im.map((v) => -v), a.gyx.re, a.gyx.im)).toBeLessThan(1e-13);
+  });
+  it('averages = K equals the first K blocks of the record', () => {
+    const a = welchCrossSpectra(x, y, { ...o, averages: 10 });
+    const b = welchCrossSpectra(x.slice(0, 256 + 9 * 64), y.slice(0, 256 + 9 * 64), o);
+    expect(a.blocks).toBe(10);
+    expect(b.blocks).toBe(10);
+    expect(maxRelativeDifference(a.gxx, b.gxx)).toBe(0);
+  });
+});
+
+describe("Welch's overlap correction", () => {
+  it('effective averages follow K/[1 + 2 Σ (1 − j/K) c(j)²] (hand-computed for Hann 50 %)', () => {
+    // P. D. Welch 1967. Hann at 50 % overlap: c(1) = 1/6, c(j ≥ 2) = 0.
+    const w = windowSamples('hann', 256);
+    expect(overlapCorrelation(w, 128)).toBeCloseTo(1 / 6, 12);
+    expect(effectiveAverages(w, 128, 32)).toBeCloseTo(32 / (1 + 2 * (31 / 32) * (1 / 36)), 10);
+    expect(effectiveAverages(w, 256, 32)).toBe(32);
+  });
+
+  it('Monte Carlo: variance of Gxx for Hann 50 % matches 1/n_eff, not 1/K', () => {
+    // White Gaussian noise, N = 256, K = 32 blocks at 50 % overlap, 1500 records. Lines 3 apart are
+    // uncorrelated for the periodic Hann window (its squared window has only 3 Fourier terms), so
+    // every 3rd interior line is an independent sample of Gxx/E[Gxx]. The sampling error of a
+    // variance from C near-Gaussian samples is sqrt(2/C) relative; allow 4 of them.
+    const n = 256;
+    const blocks = 32;
+    const length = n + (blocks - 1) * (n / 2);
+    const ratios: number[] = [];
+    let neff = 0;
+    for (let seed = 0; seed < 1500; seed++) {
+      const x = gaussianNoise(`welch-mc-${seed}`, length);
+      const s = welchCrossSpectra(x, x, { sampleRateHz: 1, blockLength: n, window: 'hann', overlap: 0.5, detrend: 'none', scaling: 'density' });
+      neff = s.effectiveAverages;
+      for (let k = 3; k < n / 2; k += 3) ratios.push(s.gxx[k] / 2); // E[Gxx] = 2σ²/fs = 2
+    }
+    const { variance } = meanAndVariance(ratios);
+    const tolerance = 4 * Math.sqrt(2 / ratios.length);
+    expect(s_round(neff)).toBe(s_round(32 / 1.0538194444444444));
+    expect(Math.abs(variance * neff - 1)).toBeLessThan(tolerance);
+    // The uncorrected count K would predict a variance 5.4 % lower: the test can tell them apart.
+    expect(Math.abs(variance * blocks - 1)).toBeGreaterThan(tolerance);
+  });
+});
+
+function s_round(v: number): number {
+  return Math.round(v * 1e9) / 1e9;
+}
+
+describe('warnings', () => {
+  const x = gaussianNoise('warn', 2048);
+  const base: WelchOptions = { sampleRateHz: 1, blockLength: 256, window: 'hann', overlap: 0.5, detrend: 'none', scaling: 'density' };
+  it('asks for more averages than the record holds: uses what is there and says so', () => {
+    const s = welchCrossSpectra(x, x, { ...base, averages: 40 });
+    expect(s.blocks).toBe(15);
+    expect(s.warnings.join()).toMatch(/averages=40 .* only 15 blocks/);
+  });
+  it('an overlap that is not a whole number of samples is rounded, with a warning', () => {
+    const s = welchCrossSpectra(x, x, { ...base, overlap: 0.3 });
+    expect(s.warnings.join()).toMatch(/rounded to 77 samples/);
+  });
+  it('no warnings for a plain request', () => {
+    expect(welchCrossSpectra(x, x, base).warnings).toEqual([]);
+  });
+});
+
+describe('validation', () => {
+  const x = gaussianNoise('valid', 1024);
+  const base: WelchOptions = { sampleRateHz: 1, blockLength: 256, window: 'hann', overlap: 0.5, detrend: 'none', scaling: 'density' };
+  const withNaN = x.slice();
+  withNaN[17] = NaN;
+  const withInf = x.slice();
+  withInf[3] = Infinity;
+  it.each<[string, () => unknown]>([
+    ['y.length', () => welchCrossSpectra(x, x.slice(1), base)],
+    ['x', () => welchCrossSpectra([1, 2] as unknown as Float64Array, x, base)],
+    ['x[17]', () => welchCrossSpectra(withNaN, x, base)],
+    ['y[3]', () => welchCrossSpectra(x, withInf, base)],
+    ['sampleRateHz', () => welchCrossSpectra(x, x, { ...base, sampleRateHz: 0 })],
+    ['sampleRateHz', () => welchCrossSpectra(x, x, { ...base, sampleRateHz: NaN })],
+    ['blockLength', () => welchCrossSpectra(x, x, { ...base, blockLength: 300 })],
+    ['blockLength', () => welchCrossSpectra(x, x, { ...base, blockLength: 2 })],
+    ['blockLength', () => welchCrossSpectra(x, x, { ...base, blockLength: 2048 })],
+    ['overlap', () => welchCrossSpectra(x, x, { ...base, overlap: 1 })],
+    ['overlap', () => welchCrossSpectra(x, x, { ...base, overlap: -0.1 })],
+    ['overlap', () => welchCrossSpectra(x, x, { ...base, overlap: NaN })],
+    ['overlap', () => welchCrossSpectra(x, x, { ...base, blockLength: 4, overlap: 0.9 })],
+    ['averages', () => welchCrossSpectra(x, x, { ...base, averages: 0 })],
+    ['averages', () => welchCrossSpectra(x, x, { ...base, averages: 2.5 })],
+    ['window', () => welchCrossSpectra(x, x, { ...base, window: 'gauss' as WindowName })],
+    ['windowParams.kaiserBeta', () => welchCrossSpectra(x, x, { ...base, window: 'kaiser' })],
+    ['detrend', () => welchCrossSpectra(x, x, { ...base, detrend: 'quadratic' as Detrend })],
+    ['scaling', () => welchCrossSpectra(x, x, { ...base, scaling: 'power' as SpectrumScaling })],
+  ])('throws EngineInputError naming %s', (field, call) => {
+    let error: unknown;
+    try {
+      call();
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(EngineInputError);
+    expect((error as EngineInputError).field).toBe(field);
+    expect((error as Error).message.startsWith(`${field}=`)).toBe(true);
+  });
+});
