@@ -16,6 +16,9 @@ export * from './recipe';
 export * from './transient';
 export * from './process';
 
+export * from './random';
+export * from './systems';
+
 export * from './scores/line-scores';
 export * from './scores/modes';
 export * from './scores/statistics';
@@ -23,3 +26,4 @@ export * from './scores/monte-carlo';
 export * from './scores/mode-aggregate';
 export * from './scores/criteria';
 export * from './scores/resolution-bias';
+export * from './scores/windowed-reference';

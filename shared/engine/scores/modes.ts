@@ -54,6 +54,11 @@ export interface ModeErrorsInput {
   references?: readonly (ExactModeReference | null)[];
   /** Fewest lines at or above the half-power level for a damping figure (default 3). */
   minLinesAboveHalfPower?: number;
+  /**
+   * Damping ratio to subtract from each half-power figure at its peak frequency before it is
+   * compared, e.g. the added damping 1/(ω·τ) of an exponential window (the lab's usual correction).
+   */
+  dampingCorrection?: (fHz: number) => number;
 }
 
 /**
@@ -212,7 +217,7 @@ export function modeErrors(input: ModeErrorsInput): ModeError[] {
       };
     }
     const fPeak = f[hp.peak];
-    const zeta = (hp.upper - hp.lower) / (2 * fPeak);
+    const zeta = (hp.upper - hp.lower) / (2 * fPeak) - (input.dampingCorrection?.(fPeak) ?? 0);
     const exactPeak = base.exactPeakMagnitude;
     return {
       ...base,
