@@ -8,6 +8,11 @@ import { canonicalJson, hashAuditRow, recordAudit, verifyAuditChain } from '@/se
 import { startTestServer, type TestServer } from './helpers';
 
 let t: TestServer;
+const failureOf = (p: PromiseLike<unknown>) =>
+  Promise.resolve(p).then(
+    () => 'resolved',
+    (e: { message?: string }) => String(e?.message),
+  );
 beforeAll(async () => {
   t = await startTestServer();
 });
@@ -54,8 +59,86 @@ describe('the chain in the database', () => {
   });
 
   it('refuses UPDATE and DELETE through the triggers', async () => {
-    await expect(t.db.raw("UPDATE audit_events SET action = 'forged'")).rejects.toThrow(/append-only: UPDATE refused/);
-    await expect(t.db.raw('DELETE FROM audit_events')).rejects.toThrow(/append-only: DELETE refused/);
+    // The rejection comes from better-sqlite3 (another realm than jest's), so compare messages.
+    expect(await failureOf(t.db.raw("UPDATE audit_events SET action = 'forged'"))).toMatch(/append-only: UPDATE refused/);
+    expect(await failureOf(t.db.raw('DELETE FROM audit_events'))).toMatch(/append-only: DELETE refused/);
     expect(await t.db('audit_events').where({ action: 'forged' }).count({ n: '*' }).first()).toEqual({ n: 0 });
+  });
+});
+
+describe('the audit trail over HTTP', () => {
+  it('lists events with filters and pages, for admin and auditor only', async () => {
+    const admin = await t.signIn('admin');
+    const analystId = (await t.db('users').where({ email: 'analyst@harborridge.test' }).first()).id;
+    await admin.patch(`/api/v1/labs/${t.labId}/members/${analystId}`).send({ role: 'reviewer' }).expect(200);
+    await admin.patch(`/api/v1/labs/${t.labId}/members/${analystId}`).send({ role: 'analyst' }).expect(200);
+
+    const auditor = await t.signIn('auditor');
+    const roles = await auditor.get(`/api/v1/labs/${t.labId}/audit?action=members.change-role`).expect(200);
+    expect(roles.body.total).toBe(2);
+    expect(roles.body.items.map((e: { after: { role: string } }) => e.after.role)).toEqual(['analyst', 'reviewer']); // newest first
+    expect(roles.body.items[0].actor).toMatchObject({ email: 'admin@harborridge.test', displayName: 'Mara Okafor' });
+
+    const family = await auditor.get(`/api/v1/labs/${t.labId}/audit?action=members.*&limit=1`).expect(200);
+    expect(family.body).toMatchObject({ total: 2, limit: 1 });
+    expect(family.body.items).toHaveLength(1);
+    const adminId = roles.body.items[0].actor.userId;
+    const byActor = await auditor.get(`/api/v1/labs/${t.labId}/audit?actor=${adminId}`).expect(200);
+    expect(byActor.body.items.every((e: { actor: { userId: string } }) => e.actor.userId === adminId)).toBe(true);
+    const today = new Date().toISOString().slice(0, 10);
+    const inDay = await auditor.get(`/api/v1/labs/${t.labId}/audit?from=${today}&to=${today}&action=members.change-role`).expect(200);
+    expect(inDay.body.total).toBe(2);
+    const past = await auditor.get(`/api/v1/labs/${t.labId}/audit?to=2020-01-01`).expect(200);
+    expect(past.body.total).toBe(0);
+    const bad = await auditor.get(`/api/v1/labs/${t.labId}/audit?from=yesterday-ish`);
+    expect(bad.status).toBe(400);
+    const reviewer = await t.signIn('reviewer');
+    await reviewer.get(`/api/v1/labs/${t.labId}/audit`).expect(403);
+  });
+
+  it('records failed sign-ins as lab-less events', async () => {
+    await t.http.post('/api/v1/auth/sign-in').send({ email: 'ghost@harborridge.test', password: 'whatever-it-is' }).expect(401);
+    const row = await t.db('audit_events').whereNull('lab_id').where({ action: 'auth.sign-in-failed' }).orderBy('id', 'desc').first();
+    expect(JSON.parse(row.after_json)).toMatchObject({ email: 'ghost@harborridge.test', reason: 'unknown_email' });
+    expect(row.actor_user_id).toBeNull();
+  });
+
+  it('exports CSV with formula-looking text escaped', async () => {
+    await recordAudit(t.db, { labId: t.labId, actorUserId: null, action: 'test.csv', targetType: 'thing', targetId: '=HYPERLINK("x")' });
+    const auditor = await t.signIn('auditor');
+    const res = await auditor.get(`/api/v1/labs/${t.labId}/audit/export`).expect(200).expect('content-type', /text\/csv/);
+    const lines = res.text.trim().split('\r\n');
+    expect(lines[0]).toBe('id,at_iso,actor_user_id,action,target_type,target_id,before_json,after_json,prev_hash,hash');
+    const csvLine = lines.find((l) => l.includes('test.csv'))!;
+    expect(csvLine).toContain(`"'=HYPERLINK(""x"")"`);
+    const stored = await t.db('audit_events').where({ lab_id: t.labId }).count({ n: '*' }).first();
+    expect(lines.length - 1).toBe(Number(stored!.n));
+  });
+
+  it('verifies the chain, then finds a row tampered with raw SQL after the trigger is dropped', async () => {
+    const auditor = await t.signIn('auditor');
+    const ok = await auditor.get(`/api/v1/labs/${t.labId}/audit/verify`).expect(200);
+    expect(ok.body.ok).toBe(true);
+    expect(ok.body.checked).toBeGreaterThan(5);
+
+    const victim = await t.db('audit_events').where({ lab_id: t.labId, action: 'members.change-role' }).orderBy('id').first();
+    await t.db.raw('DROP TRIGGER audit_events_no_update');
+    try {
+      await t.db.raw('UPDATE audit_events SET after_json = ? WHERE id = ?', ['{"role":"admin"}', victim.id]);
+    } finally {
+      await t.db.raw(`CREATE TRIGGER audit_events_no_update BEFORE UPDATE ON audit_events
+        BEGIN SELECT RAISE(ABORT, 'audit_events is append-only: UPDATE refused'); END`);
+    }
+    const broken = await auditor.get(`/api/v1/labs/${t.labId}/audit/verify`).expect(200);
+    expect(broken.body).toMatchObject({ ok: false, firstBroken: { id: Number(victim.id), reason: 'hash_mismatch' } });
+
+    // Rewriting the hash too (to hide the edit) breaks the link of the next event instead.
+    const next = await t.db('audit_events').where({ lab_id: t.labId }).where('id', '>', victim.id).orderBy('id').first();
+    const forged = await t.db('audit_events').where({ id: victim.id }).first();
+    await t.db.raw('DROP TRIGGER audit_events_no_update');
+    await t.db.raw('UPDATE audit_events SET hash = ? WHERE id = ?', [hashAuditRow(forged), victim.id]);
+    await t.db.raw(`CREATE TRIGGER audit_events_no_update BEFORE UPDATE ON audit_events
+      BEGIN SELECT RAISE(ABORT, 'audit_events is append-only: UPDATE refused'); END`);
+    expect(await verifyAuditChain(t.db, t.labId)).toMatchObject({ ok: false, firstBroken: { id: Number(next.id), reason: 'link_mismatch' } });
   });
 });
