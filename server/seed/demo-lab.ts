@@ -6,6 +6,7 @@ import type { Role } from '@/shared/api/auth';
 import { hashPassword } from '../auth/password';
 import type { Db } from '../db/knex';
 import { addMembership, insertLab, insertUser } from '../db/users';
+import { recordAudit } from '../services/audit';
 
 export const DEMO_LAB = { name: 'Harbor Ridge Test Lab', slug: 'harbor-ridge' };
 
@@ -24,9 +25,12 @@ export async function seedDemoLab(db: Db, password: string): Promise<boolean> {
   const passwordHash = await hashPassword(password);
   await db.transaction(async (trx) => {
     const labId = await insertLab(trx, DEMO_LAB);
+    // The seed is the first entry of the lab's audit trail (actor: none, the system).
+    await recordAudit(trx, { labId, actorUserId: null, action: 'lab.create', targetType: 'lab', targetId: labId, after: { ...DEMO_LAB, seed: true } });
     for (const u of DEMO_USERS) {
       const userId = await insertUser(trx, { email: u.email, displayName: u.displayName, passwordHash });
       await addMembership(trx, { labId, userId, role: u.role });
+      await recordAudit(trx, { labId, actorUserId: null, action: 'members.add', targetType: 'user', targetId: userId, after: { email: u.email, role: u.role } });
     }
   });
   return true;

@@ -79,8 +79,9 @@ describe('the audit trail over HTTP', () => {
     expect(roles.body.items.map((e: { after: { role: string } }) => e.after.role)).toEqual(['analyst', 'reviewer']); // newest first
     expect(roles.body.items[0].actor).toMatchObject({ email: 'admin@harborridge.test', displayName: 'Mara Okafor' });
 
+    // The family members.* holds the two role changes and the seed's five members.add events.
     const family = await auditor.get(`/api/v1/labs/${t.labId}/audit?action=members.*&limit=1`).expect(200);
-    expect(family.body).toMatchObject({ total: 2, limit: 1 });
+    expect(family.body).toMatchObject({ total: 7, limit: 1 });
     expect(family.body.items).toHaveLength(1);
     const adminId = roles.body.items[0].actor.userId;
     const byActor = await auditor.get(`/api/v1/labs/${t.labId}/audit?actor=${adminId}`).expect(200);

@@ -149,3 +149,35 @@ describe('lab settings and the mail view', () => {
     expect(mail.body.items.some((m: { to: string }) => m.to === 'elsewhere@example.test')).toBe(false);
   });
 });
+
+describe('the seed, Origin check and the mail view with a real relay', () => {
+  it('starts the demo lab audit trail with its creation and five members, and verifies', async () => {
+    const first = await t.db('audit_events').where({ lab_id: t.labId }).orderBy('id').limit(6).select('action', 'prev_hash');
+    expect(first.map((e) => e.action)).toEqual(['lab.create', ...Array(5).fill('members.add')]);
+    expect(first[0].prev_hash).toBeNull();
+    const admin = await t.signIn('admin');
+    expect((await admin.get(`/api/v1/labs/${t.labId}/audit/verify`).expect(200)).body.ok).toBe(true);
+  });
+
+  it('refuses a state-changing request from another site', async () => {
+    const admin = await t.signIn('admin');
+    const res = await admin.post(`/api/v1/labs/${t.labId}/invitations`).set('Origin', 'http://elsewhere.test').send({ email: 'csrf@example.test', role: 'admin' });
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('bad_origin');
+    expect(await t.db('invitations').where({ email: 'csrf@example.test' }).first()).toBeUndefined();
+  });
+
+  it('answers 409 for the mail view when mail goes to a real SMTP server', async () => {
+    // A relay address that is never contacted: nothing in this test sends mail.
+    const relayed = await startTestServer({ SMTP_HOST: '127.0.0.1', SMTP_PORT: '9' });
+    try {
+      expect(relayed.running.fakeSmtp).toBeNull();
+      const admin = await relayed.signIn('admin');
+      const res = await admin.get(`/api/v1/labs/${relayed.labId}/mail`);
+      expect(res.status).toBe(409);
+      expect(res.body.error.code).toBe('mail_view_off');
+    } finally {
+      await relayed.close();
+    }
+  });
+});
