@@ -83,7 +83,9 @@ export function parseRecipe(json: unknown): Recipe {
       const key = [...path, issue.keys[0]].join('.');
       throw new EngineInputError(key, valueAt(json, [...path, issue.keys[0]]), 'is not a recipe field');
     }
-    throw new EngineInputError(path.join('.') || 'recipe', valueAt(json, path), ruleOf(issue.message));
+    const value = valueAt(json, path);
+    const rule = value === undefined && path.length > 0 ? 'is required' : ruleOf(issue.message);
+    throw new EngineInputError(path.join('.') || 'recipe', value, rule);
   }
   const r = result.data;
   if (r.blockLength === undefined && r.frequencyResolutionHz === undefined) {
@@ -98,6 +100,15 @@ export function parseRecipe(json: unknown): Recipe {
   }
   if (r.window === 'kaiser' && r.windowParams?.kaiserBeta === undefined) {
     throw new EngineInputError('windowParams.kaiserBeta', undefined, 'is required for the kaiser window');
+  }
+  if (r.transient && r.transient.forceWindowFraction <= r.transient.pretriggerFraction) {
+    // The force window is unity from the block start; ending at or before the trigger it would cut
+    // the impact itself.
+    throw new EngineInputError(
+      'transient.forceWindowFraction',
+      r.transient.forceWindowFraction,
+      `must exceed transient.pretriggerFraction=${r.transient.pretriggerFraction}`,
+    );
   }
   if (r.band.lowHz >= r.band.highHz) {
     throw new EngineInputError('band.lowHz', r.band.lowHz, `must be below band.highHz=${r.band.highHz}`);

@@ -94,6 +94,13 @@ describe('identities', () => {
     const b = welchCrossSpectra(y, x, o);
     expect(maxComplexRelativeDifference(b.gyx.re, b.gyx.im.map((v) => -v), a.gyx.re, a.gyx.im)).toBeLessThan(1e-13);
   });
+  it('a channel 1e-7 times the other keeps its precision in the shared FFT', () => {
+    // Its spectrum packed beside a large channel must equal its spectrum packed beside itself.
+    const small = y.map((v) => 1e-7 * v);
+    const paired = welchCrossSpectra(x, small, o);
+    const alone = welchCrossSpectra(small, small, o);
+    expect(maxRelativeDifference(paired.gyy, alone.gxx)).toBeLessThan(1e-13);
+  });
   it('averages = K equals the first K blocks of the record', () => {
     const a = welchCrossSpectra(x, y, { ...o, averages: 10 });
     const b = welchCrossSpectra(x.slice(0, 256 + 9 * 64), y.slice(0, 256 + 9 * 64), o);
