@@ -59,8 +59,13 @@ describe('inviting and accepting', () => {
     expect(again.body.error.code).toBe('invitation_used');
     expect(await t.db('users').where({ display_name: 'Someone Else' }).count({ n: '*' }).first()).toEqual({ n: 0 });
 
-    const events = await t.db('audit_events').where({ lab_id: t.labId }).whereIn('action', ['invitations.create', 'invitations.accept', 'members.add']).select('action');
-    expect(events.map((e) => e.action).sort()).toEqual(['invitations.accept', 'invitations.create', 'members.add']);
+    const events = await t.db('audit_events')
+      .where({ lab_id: t.labId })
+      .whereIn('target_id', [res.body.id, user.id])
+      .orderBy('id')
+      .select('action', 'actor_user_id');
+    expect(events.map((e) => e.action)).toEqual(['invitations.create', 'invitations.accept', 'members.add']);
+    expect(events[2].actor_user_id).toBe(user.id);
   });
 
   it('refuses weak passwords with the field named, and keeps the invitation open', async () => {
