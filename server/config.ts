@@ -56,7 +56,7 @@ export interface Config {
 export class ConfigError extends Error {}
 
 /** Reads and checks the configuration; throws ConfigError naming every bad variable. */
-export function loadConfig(env: NodeJS.ProcessEnv = process.env, cwd = process.cwd()): Config {
+export function loadConfig(env: Record<string, string | undefined> = process.env, cwd = process.cwd()): Config {
   const parsed = envSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => {

@@ -16,9 +16,13 @@ function journey(viewport: ViewportName) {
         await page.goto('/');
         await page.getByLabel('E-mail').waitFor({ timeout: 20_000 });
         await page.evaluate(() => document.fonts.ready);
-        const families = await page.evaluate(() =>
-          [...document.fonts].filter((f) => f.status === 'loaded').map((f) => f.family),
-        );
+        const families = await page.evaluate(() => {
+          const loaded: string[] = [];
+          document.fonts.forEach((f) => {
+            if (f.status === 'loaded') loaded.push(f.family);
+          });
+          return loaded;
+        });
         expect(
           families.some((f) => /Atkinson/i.test(f)),
           `the shipped interface font is not loaded (loaded: ${families.join(', ') || 'none'})`,
