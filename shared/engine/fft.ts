@@ -45,7 +45,8 @@ export class PairedRealFft {
   readonly xIm: Float64Array;
   readonly yRe: Float64Array;
   readonly yIm: Float64Array;
-  private readonly out: Float64Array;
+  /** Z = FFT(input), interleaved re, im (valid after transform/transformRaw). */
+  readonly raw: Float64Array;
   private readonly fft: FFT;
 
   constructor(size: number) {
@@ -53,16 +54,21 @@ export class PairedRealFft {
     this.size = size;
     this.lines = size / 2 + 1;
     this.input = new Float64Array(2 * size);
-    this.out = new Float64Array(2 * size);
+    this.raw = new Float64Array(2 * size);
     this.xRe = new Float64Array(this.lines);
     this.xIm = new Float64Array(this.lines);
     this.yRe = new Float64Array(this.lines);
     this.yIm = new Float64Array(this.lines);
   }
 
+  /** Z = FFT(input) into `raw`, without separating X and Y. */
+  transformRaw(): void {
+    this.fft.transform(this.raw, this.input);
+  }
+
   /** Transforms `input` and separates X and Y (k = 0..N/2). No allocation. */
   transform(): void {
-    const z = this.out;
+    const z = this.raw;
     this.fft.transform(z, this.input);
     const n = this.size;
     const { xRe, xIm, yRe, yIm } = this;
@@ -87,6 +93,40 @@ export class PairedRealFft {
       yRe[k] = 0.5 * (b + d);
       yIm[k] = 0.5 * (c - a);
     }
+  }
+}
+
+/**
+ * Transforms `input` and ADDS 4× this block's |X|², |Y|², Re(Y·conj X) and Im(Y·conj X), k = 0..N/2,
+ * to the four sums: the separation of X and Y fused with the accumulation, reading Z directly
+ * (2X = Z[k] + conj Z[N−k], 2Y = −i·(Z[k] − conj Z[N−k])). The factor 4 is exact (a power of two);
+ * the caller divides it out. xRe/xIm/yRe/yIm are not written. No allocation.
+ */
+export function accumulatePairedSpectra(
+  p: PairedRealFft,
+  sxx: Float64Array,
+  syy: Float64Array,
+  syxRe: Float64Array,
+  syxIm: Float64Array,
+): void {
+  p.transformRaw();
+  const z = p.raw;
+  const n = p.size;
+  const h = n >> 1;
+  for (let k = 0; k <= h; k++) {
+    const m = k === 0 ? 0 : 2 * (n - k);
+    const a = z[2 * k];
+    const b = z[2 * k + 1];
+    const c = z[m];
+    const d = z[m + 1];
+    const xr = a + c;
+    const xi = b - d;
+    const yr = b + d;
+    const yi = c - a;
+    sxx[k] += xr * xr + xi * xi;
+    syy[k] += yr * yr + yi * yi;
+    syxRe[k] += yr * xr + yi * xi;
+    syxIm[k] += yi * xr - yr * xi;
   }
 }
 

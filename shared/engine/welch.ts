@@ -14,7 +14,7 @@
  */
 import type { ComplexArray, Detrend, SpectrumScaling, WindowName } from './types';
 import { EngineInputError, requireFinite } from './errors';
-import { PairedRealFft, isPowerOfTwo } from './fft';
+import { PairedRealFft, accumulatePairedSpectra, isPowerOfTwo } from './fft';
 import { fitTrend, DETREND_KINDS } from './detrend';
 import { overlapCorrelation, windowSamples, type WindowParams } from './windows';
 
@@ -141,20 +141,24 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
   if (!SCALINGS.includes(o.scaling)) {
     throw new EngineInputError('scaling', o.scaling, `must be one of ${SCALINGS.join(', ')}`);
   }
+  requireSameLength(x, y);
   const blocks = o.blockStarts.length;
   if (blocks < 1) throw new EngineInputError('blocks', blocks, 'must be ≥ 1');
   const n = o.inputWindow.length;
+  for (const [field, w] of [['outputWindow', o.outputWindow], ['scaleWindow', o.scaleWindow]] as const) {
+    if (w.length !== n) throw new EngineInputError(`${field}.length`, w.length, `must equal inputWindow.length=${n}`);
+  }
   // Two-for-one packing adds rounding error of order ε·|larger channel| to both spectra, so a
   // channel 1e-6 times the other (metres against newtons) would lose six digits. Scaling each
   // channel by a power of two (exact in binary floating point) to a peak near 1 avoids that; the
   // scales are folded into the window copies and divided out exactly at the end.
-  const gx = powerOfTwoScale(x);
-  const gy = powerOfTwoScale(y);
+  const gx = powerOfTwoScale('x', x);
+  const gy = powerOfTwoScale('y', y);
   const wx = o.inputWindow.map((v) => v * gx);
   const wy = o.outputWindow.map((v) => v * gy);
   const paired = new PairedRealFft(n);
   const lines = paired.lines;
-  const { input, xRe, xIm, yRe, yIm } = paired;
+  const { input } = paired;
   const sxx = new Float64Array(lines);
   const syy = new Float64Array(lines);
   const syxRe = new Float64Array(lines);
@@ -181,17 +185,7 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
         input[2 * i + 1] = wy[i] * (y[off + i] - cy[0] - cy[1] * t);
       }
     }
-    paired.transform();
-    for (let k = 0; k < lines; k++) {
-      const ar = xRe[k];
-      const ai = xIm[k];
-      const br = yRe[k];
-      const bi = yIm[k];
-      sxx[k] += ar * ar + ai * ai;
-      syy[k] += br * br + bi * bi;
-      syxRe[k] += br * ar + bi * ai;
-      syxIm[k] += bi * ar - br * ai;
-    }
+    accumulatePairedSpectra(paired, sxx, syy, syxRe, syxIm); // sums of 4·|X|² etc.
   }
   const sw = o.scaleWindow;
   let sum = 0;
@@ -200,7 +194,7 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
     sum += sw[i];
     sumSq += sw[i] * sw[i];
   }
-  const scale = (o.scaling === 'density' ? 1 / (o.sampleRateHz * sumSq) : 1 / (sum * sum)) / blocks;
+  const scale = (o.scaling === 'density' ? 0.25 / (o.sampleRateHz * sumSq) : 0.25 / (sum * sum)) / blocks;
   const frequenciesHz = new Float64Array(lines);
   for (let k = 0; k < lines; k++) {
     const s = k === 0 || k === lines - 1 ? scale : 2 * scale;
@@ -221,12 +215,20 @@ export function accumulateCrossSpectra(x: Float64Array, y: Float64Array, o: Bloc
   };
 }
 
-/** 2^−e with 2^e the power of two nearest the peak |v|, or 1 for an all-zero channel. */
-function powerOfTwoScale(v: Float64Array): number {
+/**
+ * 2^−e with 2^e the power of two nearest the peak |v| (1 for an all-zero channel). Throws naming
+ * the first sample that is not finite, e.g. `x[17]=NaN` (one pass does both).
+ */
+function powerOfTwoScale(field: string, v: Float64Array): number {
   let peak = 0;
   for (let i = 0; i < v.length; i++) {
     const a = v[i] < 0 ? -v[i] : v[i];
-    if (a > peak) peak = a;
+    if (a > peak) {
+      if (a === Infinity) throw new EngineInputError(`${field}[${i}]`, v[i], 'must be finite');
+      peak = a;
+    } else if (a !== a) {
+      throw new EngineInputError(`${field}[${i}]`, v[i], 'must be finite');
+    }
   }
   if (peak === 0) return 1;
   return 2 ** -Math.round(Math.log2(peak));
@@ -236,8 +238,7 @@ function requireSameLength(x: Float64Array, y: Float64Array): void {
   if (!(x instanceof Float64Array)) throw new EngineInputError('x', typeof x, 'must be a Float64Array');
   if (!(y instanceof Float64Array)) throw new EngineInputError('y', typeof y, 'must be a Float64Array');
   if (y.length !== x.length) throw new EngineInputError('y.length', y.length, `must equal x.length=${x.length}`);
-  requireFiniteSamples('x', x);
-  requireFiniteSamples('y', y);
+  // Finite samples are checked where the block loop scans each channel (powerOfTwoScale).
 }
 
 /** Throws naming the first sample of `data` that is NaN or infinite, e.g. `x[17]=NaN`. */

@@ -1,5 +1,5 @@
 /** FFT wrapper: two-for-one packing against a direct DFT, round trips, validation. */
-import { PairedRealFft, fft, inverseFft, isPowerOfTwo, realFft } from '@/shared/engine/fft';
+import { PairedRealFft, accumulatePairedSpectra, fft, inverseFft, isPowerOfTwo, realFft } from '@/shared/engine/fft';
 import { EngineInputError } from '@/shared/engine/errors';
 import { gaussianNoise } from './spectra-helpers';
 
@@ -41,6 +41,30 @@ describe('PairedRealFft (one complex FFT for two real blocks)', () => {
       );
     }
     expect(worst / scale).toBeLessThan(1e-13);
+  });
+});
+
+describe('accumulatePairedSpectra (separation fused with accumulation)', () => {
+  it('adds 4·|X|², 4·|Y|², 4·Y·conj(X) of the direct DFT, at every line including 0 and N/2', () => {
+    const n = 32;
+    const x = gaussianNoise('acc-x', n);
+    const y = gaussianNoise('acc-y', n);
+    const p = new PairedRealFft(n);
+    x.forEach((v, i) => ((p.input[2 * i] = v), (p.input[2 * i + 1] = y[i])));
+    const sums = [0, 1, 2, 3].map(() => new Float64Array(n / 2 + 1).fill(1)); // adds to what is there
+    accumulatePairedSpectra(p, sums[0], sums[1], sums[2], sums[3]);
+    const dx = dft(x);
+    const dy = dft(y);
+    for (let k = 0; k <= n / 2; k++) {
+      const scale = 4 * (dx.re[k] ** 2 + dx.im[k] ** 2 + dy.re[k] ** 2 + dy.im[k] ** 2);
+      const expected = [
+        4 * (dx.re[k] ** 2 + dx.im[k] ** 2),
+        4 * (dy.re[k] ** 2 + dy.im[k] ** 2),
+        4 * (dy.re[k] * dx.re[k] + dy.im[k] * dx.im[k]),
+        4 * (dy.im[k] * dx.re[k] - dy.re[k] * dx.im[k]),
+      ];
+      expected.forEach((e, i) => expect(Math.abs(sums[i][k] - 1 - e)).toBeLessThan(1e-12 * scale));
+    }
   });
 });
 

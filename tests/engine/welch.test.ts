@@ -2,7 +2,7 @@
  * Welch cross-spectra: SciPy golden vectors, Parseval, a sine peak, identities, Welch's overlap
  * variance formula by Monte Carlo, and every validation branch.
  */
-import { effectiveAverages, welchCrossSpectra, type WelchOptions } from '@/shared/engine/welch';
+import { accumulateCrossSpectra, effectiveAverages, welchCrossSpectra, type WelchOptions } from '@/shared/engine/welch';
 import { overlapCorrelation, windowSamples } from '@/shared/engine/windows';
 import { EngineInputError } from '@/shared/engine/errors';
 import type { Detrend, SpectrumScaling, WindowName } from '@/shared/engine/types';
@@ -172,11 +172,23 @@ describe('validation', () => {
   withNaN[17] = NaN;
   const withInf = x.slice();
   withInf[3] = Infinity;
+  const hannBlock = windowSamples('hann', 256);
+  const blockOptions = {
+    sampleRateHz: 1,
+    blockStarts: [0],
+    inputWindow: hannBlock,
+    outputWindow: hannBlock,
+    scaleWindow: hannBlock,
+    detrend: 'none' as const,
+    scaling: 'density' as const,
+  };
   it.each<[string, () => unknown]>([
     ['y.length', () => welchCrossSpectra(x, x.slice(1), base)],
     ['x', () => welchCrossSpectra([1, 2] as unknown as Float64Array, x, base)],
     ['x[17]', () => welchCrossSpectra(withNaN, x, base)],
     ['y[3]', () => welchCrossSpectra(x, withInf, base)],
+    ['x[3]', () => welchCrossSpectra(withInf.map((v, i) => (i === 9 ? NaN : v)), x, base)],
+    ['x[2]', () => welchCrossSpectra(x.map((v, i) => (i === 2 ? -Infinity : v)), x, base)],
     ['sampleRateHz', () => welchCrossSpectra(x, x, { ...base, sampleRateHz: 0 })],
     ['sampleRateHz', () => welchCrossSpectra(x, x, { ...base, sampleRateHz: NaN })],
     ['blockLength', () => welchCrossSpectra(x, x, { ...base, blockLength: 300 })],
@@ -192,6 +204,13 @@ describe('validation', () => {
     ['windowParams.kaiserBeta', () => welchCrossSpectra(x, x, { ...base, window: 'kaiser' })],
     ['detrend', () => welchCrossSpectra(x, x, { ...base, detrend: 'quadratic' as Detrend })],
     ['scaling', () => welchCrossSpectra(x, x, { ...base, scaling: 'power' as SpectrumScaling })],
+    // accumulateCrossSpectra, the block loop shared with transient processing
+    ['blockStarts[1]', () => accumulateCrossSpectra(x, x, { ...blockOptions, blockStarts: [0, 900] })],
+    ['blockStarts[0]', () => accumulateCrossSpectra(x, x, { ...blockOptions, blockStarts: [1.5] })],
+    ['blocks', () => accumulateCrossSpectra(x, x, { ...blockOptions, blockStarts: [] })],
+    ['outputWindow.length', () => accumulateCrossSpectra(x, x, { ...blockOptions, outputWindow: new Float64Array(128) })],
+    ['scaleWindow.length', () => accumulateCrossSpectra(x, x, { ...blockOptions, scaleWindow: new Float64Array(128) })],
+    ['y.length', () => accumulateCrossSpectra(x, x.slice(2), blockOptions)],
   ])('throws EngineInputError naming %s', (field, call) => {
     let error: unknown;
     try {
