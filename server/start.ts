@@ -11,7 +11,10 @@ import { createDb, migrate, type Db } from './db/knex';
 import { createLogger, type Logger } from './logger';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer, type Mailer } from './mail/mailer';
+import { createPoolExecutor } from './jobs/pool';
+import { createStudyScheduler, type StudyScheduler } from './jobs/scheduler';
 import { seedDemoLab } from './seed/demo-lab';
+import { seedDemoWork } from './seed/demo-work';
 import { APP_VERSION } from './version';
 
 export interface RunningServer {
@@ -20,6 +23,7 @@ export interface RunningServer {
   logger: Logger;
   mailer: Mailer;
   fakeSmtp: FakeSmtp | null;
+  studies: StudyScheduler;
   close(): Promise<void>;
 }
 
@@ -27,13 +31,15 @@ export async function startServer(config: Config, logger = createLogger(config.l
   const db = createDb(config.databaseFile);
   await migrate(db);
   if (config.demo.seed && (await seedDemoLab(db, config.demo.password))) logger.info('demo lab seeded');
+  if (config.demo.seed && (await seedDemoWork(db))) logger.info('demo systems, scenarios, recipes and study seeded');
 
   const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.fakePort);
   const smtp = config.mail.smtp ?? { host: '127.0.0.1', port: fakeSmtp!.port, secure: false };
   const mailer = createMailer({ db, logger }, smtp, config.mail.from);
 
   const auth = createAuth(db, { idleHours: config.session.idleHours, secure: config.publicUrl.startsWith('https:') });
-  const app = createApp({ config, db, auth, logger, mailer, version: APP_VERSION });
+  const studies = createStudyScheduler({ db, logger, mailer, executor: createPoolExecutor(config.studyWorkers) });
+  const app = createApp({ config, db, auth, logger, mailer, version: APP_VERSION, studyQueue: studies });
   const server = http.createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
@@ -41,6 +47,7 @@ export async function startServer(config: Config, logger = createLogger(config.l
   });
   const { port } = server.address() as AddressInfo;
   const url = `http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port}`;
+  studies.start(); // resumes any study left running when the server last stopped
 
   let closing: Promise<void> | null = null;
   const close = () =>
@@ -49,9 +56,10 @@ export async function startServer(config: Config, logger = createLogger(config.l
         server.close(() => resolve());
         server.closeAllConnections();
       });
+      await studies.close();
       mailer.close();
       await fakeSmtp?.close();
       await db.destroy();
     })());
-  return { url, db, logger, mailer, fakeSmtp, close };
+  return { url, db, logger, mailer, fakeSmtp, studies, close };
 }

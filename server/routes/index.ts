@@ -12,6 +12,12 @@ import { mailRoutes } from './mail';
 import { openApiRoutes } from './openapi';
 import { passwordResetRoutes } from './password-reset';
 import { peopleRoutes } from './people';
+import { systemRoutes } from './systems';
+import { scenarioRoutes } from './scenarios';
+import { recipeRoutes } from './recipes';
+import { studyRoutes } from './studies';
+import { uploadRoutes } from './uploads';
+import { exportRoutes } from './exports';
 
 export function v1Routes(deps: AppDeps): Router {
   const r = Router();
@@ -22,6 +28,12 @@ export function v1Routes(deps: AppDeps): Router {
   r.use(peopleRoutes(deps));
   r.use(mailRoutes(deps));
   r.use(auditRoutes(deps));
+  r.use(systemRoutes(deps));
+  r.use(scenarioRoutes(deps));
+  r.use(recipeRoutes(deps));
+  r.use(studyRoutes(deps));
+  r.use(uploadRoutes(deps));
+  r.use(exportRoutes(deps));
   r.use(openApiRoutes(deps));
   return r;
 }

@@ -1,0 +1,149 @@
+/**
+ * The study scheduler: takes study jobs from the jobs table one at a time (oldest first), runs
+ * each study's missing runs on a RunExecutor, and tells SSE subscribers how far it has got.
+ *
+ * Durability: every finished run is stored at once, in its own transaction with the study's
+ * progress (db/studies.storeRun). A study that was running when the server stopped is found in
+ * the jobs table at the next start and resumes with the runs not yet stored; its results are
+ * aggregated from stored runs only, in a fixed order, so they equal an uninterrupted study's.
+ *
+ * Services see only the StudyQueue interface (enqueue, cancel, subscribe), so the in-process pool
+ * can be swapped for workers behind a distributed queue without touching them.
+ */
+import { EventEmitter } from 'node:events';
+import type { StudyEvent, StudyProgress } from '@/shared/api/work';
+import type { Db } from '../db/knex';
+import { claimJob, finishJob, pendingJobs } from '../db/jobs';
+import type { Logger } from '../logger';
+import type { Mailer } from '../mail/mailer';
+import type { RunExecutor } from './run-task';
+import { runStudy, type StudyRunHooks } from './study-runner';
+
+export interface StudyQueue {
+  /** Wakes the scheduler after a study and its job were committed. */
+  enqueue(studyId: string): void;
+  /** Stops scheduling the study's remaining runs; resolves when it is marked cancelled. */
+  cancel(studyId: string): Promise<void>;
+  /** Live progress events of a study; returns the unsubscribe function. */
+  subscribe(studyId: string, listener: (e: StudyEvent) => void): () => void;
+  /** The latest progress seen for a running study (with ETA), if it is running here. */
+  liveProgress(studyId: string): StudyProgress | undefined;
+}
+
+export interface StudyScheduler extends StudyQueue {
+  /** Resumes every study left queued or running, then keeps taking new ones. */
+  start(): void;
+  /** Stops taking work, abandons runs in flight (they are not stored) and closes the executor. */
+  close(): Promise<void>;
+  /** Resolves when no study is queued or running (tests and the demo seed). */
+  idle(): Promise<void>;
+}
+
+export interface SchedulerDeps {
+  db: Db;
+  logger: Logger;
+  mailer: Mailer;
+  executor: RunExecutor;
+}
+
+export const STUDY_JOB = 'study';
+
+declare module '../app' {
+  interface AppDeps {
+    /** Background studies; absent when the server runs without a scheduler. */
+    studyQueue?: StudyQueue;
+  }
+}
+
+export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
+  const events = new EventEmitter();
+  events.setMaxListeners(0);
+  const live = new Map<string, StudyProgress>();
+  const shutdown = new AbortController();
+  let started = false;
+  let loop: Promise<void> | null = null;
+  let wake = false;
+  let idleWaiters: (() => void)[] = [];
+
+  const hooks: StudyRunHooks = {
+    stopping: shutdown.signal,
+    progress(id, progress) {
+      live.set(id, progress);
+      events.emit(id, { type: 'progress', progress } satisfies StudyEvent);
+    },
+    end(id, progress, error) {
+      live.delete(id);
+      events.emit(id, { type: 'end', progress, error } satisfies StudyEvent);
+    },
+  };
+
+  async function drain() {
+    do {
+      wake = false;
+      const jobs = await pendingJobs(deps.db, STUDY_JOB);
+      for (const job of jobs) {
+        if (shutdown.signal.aborted) return;
+        const { studyId } = JSON.parse(job.payload) as { studyId: string };
+        if (!(await claimJob(deps.db, job.id))) continue;
+        try {
+          const outcome = await runStudy(deps, studyId, hooks);
+          if (outcome === 'interrupted') return; // shutting down: the job stays running for the next start
+          await finishJob(deps.db, job.id, outcome === 'failed' ? 'failed' : outcome === 'cancelled' ? 'cancelled' : 'done');
+        } catch (err) {
+          if (shutdown.signal.aborted) return;
+          deps.logger.error({ err, studyId }, 'study job failed');
+          await finishJob(deps.db, job.id, 'failed', String((err as Error).message ?? err));
+        }
+      }
+    } while (wake && !shutdown.signal.aborted);
+  }
+
+  function kick() {
+    if (!started || shutdown.signal.aborted) return;
+    if (loop) {
+      wake = true;
+      return;
+    }
+    loop = drain()
+      .catch((err) => deps.logger.error({ err }, 'study scheduler stopped on an error'))
+      .finally(() => {
+        loop = null;
+        if (wake && !shutdown.signal.aborted) kick();
+        else {
+          const waiters = idleWaiters;
+          idleWaiters = [];
+          waiters.forEach((w) => w());
+        }
+      });
+  }
+
+  return {
+    start() {
+      started = true;
+      kick();
+    },
+    enqueue() {
+      kick();
+    },
+    async cancel() {
+      // The request is stored on the study (cancel_requested_at); the runner checks it before it
+      // schedules each run, so nothing is needed here beyond waking a queued study's turn.
+      kick();
+    },
+    subscribe(studyId, listener) {
+      events.on(studyId, listener);
+      return () => events.off(studyId, listener);
+    },
+    liveProgress: (studyId) => live.get(studyId),
+    idle() {
+      if (!loop) return Promise.resolve();
+      return new Promise((resolve) => idleWaiters.push(resolve));
+    },
+    async close() {
+      shutdown.abort();
+      await deps.executor.close().catch(() => undefined);
+      await loop?.catch(() => undefined);
+      events.removeAllListeners();
+    },
+  };
+}

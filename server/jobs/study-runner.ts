@@ -1,0 +1,173 @@
+/**
+ * Runs one study to its end (or until cancelled or the server stops): works out which runs are
+ * not stored yet, keeps `executor.capacity` of them in flight, stores each outcome at once, and
+ * finally aggregates the stored runs into the study's results and mails its author.
+ */
+import type { StudyProgress } from '@/shared/api/work';
+import { studySeed } from '@/shared/engine/study';
+import type { Db } from '../db/knex';
+import { findStudyById, storeRun, storedRunKeys, studyScenarios, updateStudy, type StudyRow, type StudyScenarioRow } from '../db/studies';
+import { findVersion } from '../db/versioned';
+import { findUserById } from '../db/users';
+import type { Logger } from '../logger';
+import type { Mailer } from '../mail/mailer';
+import { finaliseStudy } from '../services/study-results';
+import type { RunExecutor, RunOutcome, RunTask } from './run-task';
+
+export interface StudyRunHooks {
+  /** Aborted when the server shuts down: stop at once, store nothing more. */
+  stopping: AbortSignal;
+  progress(studyId: string, progress: StudyProgress): void;
+  end(studyId: string, progress: StudyProgress, error: string | null): void;
+}
+
+export type StudyOutcome = 'finished' | 'failed' | 'cancelled' | 'interrupted';
+
+interface RunnerDeps {
+  db: Db;
+  logger: Logger;
+  mailer: Mailer;
+  executor: RunExecutor;
+}
+
+const ENDED = new Set(['finished', 'failed', 'cancelled']);
+
+export async function runStudy(deps: RunnerDeps, studyId: string, hooks: StudyRunHooks): Promise<StudyOutcome> {
+  const { db } = deps;
+  const study = await findStudyById(db, studyId);
+  if (!study) return 'cancelled';
+  if (ENDED.has(study.status)) return study.status as StudyOutcome;
+  const scenarios = await studyScenarios(db, studyId);
+  const names = new Map(scenarios.map((s) => [s.scenario_id, s.name]));
+  if (study.cancel_requested_at) return endCancelled(deps, study, hooks);
+
+  const recipe = await findVersion(db, 'recipes', study.recipe_id, study.recipe_version);
+  if (!recipe) throw new Error(`recipe ${study.recipe_id} v${study.recipe_version} of study ${studyId} is missing`);
+  await updateStudy(db, studyId, { status: 'running', started_at: study.started_at ?? Date.now() });
+
+  const stored = await storedRunKeys(db, studyId);
+  const todo = missingRuns(study, scenarios, JSON.parse(recipe.body), stored);
+  const pace = { since: Date.now(), doneAtStart: study.runs_done };
+  let done = study.runs_done;
+  let failed = study.runs_failed;
+  let current: string | null = todo[0]?.scenarioId ?? study.current_scenario_id;
+  const progress = (status: StudyProgress['status']): StudyProgress => ({
+    status,
+    done,
+    failed,
+    total: study.runs_total,
+    currentScenario: current ? { id: current, name: names.get(current) ?? '' } : null,
+    etaSeconds: eta(pace, done, study.runs_total),
+  });
+  hooks.progress(studyId, progress('running'));
+
+  let next = 0;
+  let cancelled = false;
+  const lane = async () => {
+    for (;;) {
+      if (hooks.stopping.aborted || cancelled) return;
+      if (await cancelRequested(db, studyId)) {
+        cancelled = true;
+        return;
+      }
+      const task = todo[next++];
+      if (!task) return;
+      current = task.scenarioId;
+      const outcome = await deps.executor.run(task, hooks.stopping).catch((err: Error): RunOutcome | null =>
+        hooks.stopping.aborted ? null : { ok: false, error: `worker: ${err.message}`, startedAt: Date.now(), finishedAt: Date.now() },
+      );
+      if (!outcome || hooks.stopping.aborted) return;
+      const isNew = await storeRun(db, {
+        study_id: studyId,
+        scenario_id: task.scenarioId,
+        scenario_version: scenarios[task.position].scenario_version,
+        position: task.position,
+        seed_index: task.seedIndex,
+        seed: task.seed,
+        status: outcome.ok ? 'finished' : 'failed',
+        summary: outcome.ok ? JSON.stringify(outcome.summary) : null,
+        line_scores: outcome.ok ? Buffer.from(outcome.lineScores.buffer, outcome.lineScores.byteOffset, outcome.lineScores.byteLength) : null,
+        error: outcome.ok ? null : outcome.error,
+        started_at: outcome.startedAt,
+        finished_at: outcome.finishedAt,
+      });
+      if (isNew) {
+        done++;
+        if (!outcome.ok) failed++;
+      }
+      hooks.progress(studyId, progress('running'));
+    }
+  };
+  await Promise.all(Array.from({ length: Math.max(1, deps.executor.capacity) }, lane));
+
+  if (hooks.stopping.aborted) return 'interrupted';
+  if (cancelled) return endCancelled(deps, study, hooks);
+  const final = await finaliseStudy(db, studyId);
+  current = null;
+  const end = { ...progress(final.status), etaSeconds: null };
+  hooks.end(studyId, end, final.error);
+  await mailAuthor(deps, study, final.status, final.error);
+  return final.status;
+}
+
+/** Every (scenario, seed) not stored yet, scenario-major, seeds by the engine's seed rule. */
+export function missingRuns(study: StudyRow, scenarios: StudyScenarioRow[], recipe: unknown, stored: Set<string>): RunTask[] {
+  const out: RunTask[] = [];
+  for (const s of scenarios) {
+    const scenario = JSON.parse(s.body);
+    for (let i = 0; i < study.seeds; i++) {
+      if (stored.has(`${s.position}:${i}`)) continue;
+      out.push({ studyId: study.id, position: s.position, scenarioId: s.scenario_id, seedIndex: i, seed: studySeed(study.base_seed, s.position, i), scenario, recipe });
+    }
+  }
+  return out;
+}
+
+/** Seconds left at the pace of this session's runs; null before the first one. */
+function eta(pace: { since: number; doneAtStart: number }, done: number, total: number): number | null {
+  const ran = done - pace.doneAtStart;
+  if (ran <= 0 || done >= total) return done >= total ? 0 : null;
+  const perRun = (Date.now() - pace.since) / 1000 / ran;
+  return Math.round(perRun * (total - done) * 10) / 10;
+}
+
+async function cancelRequested(db: Db, studyId: string): Promise<boolean> {
+  const row = await db('studies').where({ id: studyId }).first('cancel_requested_at');
+  return Boolean(row?.cancel_requested_at);
+}
+
+async function endCancelled(deps: RunnerDeps, study: StudyRow, hooks: StudyRunHooks): Promise<'cancelled'> {
+  const fresh = (await findStudyById(deps.db, study.id)) ?? study;
+  await updateStudy(deps.db, study.id, { status: 'cancelled', finished_at: Date.now(), current_scenario_id: null });
+  hooks.end(
+    study.id,
+    {
+      status: 'cancelled',
+      done: fresh.runs_done,
+      failed: fresh.runs_failed,
+      total: fresh.runs_total,
+      currentScenario: null,
+      etaSeconds: null,
+    },
+    null,
+  );
+  return 'cancelled';
+}
+
+async function mailAuthor(deps: RunnerDeps, study: StudyRow, status: 'finished' | 'failed', error: string | null) {
+  const author = await findUserById(deps.db, study.created_by);
+  if (!author) return;
+  const subject = status === 'finished' ? `Study finished: ${study.name}` : `Study failed: ${study.name}`;
+  const text = [
+    `Hello ${author.display_name},`,
+    '',
+    status === 'finished'
+      ? `The study "${study.name}" has finished: ${study.runs_total} runs of recipe "${study.recipe_name}" v${study.recipe_version}.`
+      : `The study "${study.name}" has failed. ${error ?? ''}`,
+    '',
+    'Open it in Plumbline to read the results.',
+  ].join('\n');
+  await deps.mailer
+    .send({ labId: study.lab_id, to: author.email, subject, text, kind: status === 'finished' ? 'study-finished' : 'study-failed' })
+    .catch((err) => deps.logger.warn({ err, studyId: study.id }, 'study mail not sent'));
+}

@@ -1,0 +1,190 @@
+/**
+ * A study's results, made only from its stored runs: each scenario's runs are unpacked exactly
+ * and assembled by the engine (assembleStudy) in the engine's canonical seed order, so a study
+ * resumed after a crash aggregates to the same bytes as one that ran straight through.
+ *
+ * Per scenario the engine's aggregate curves (per-line statistics over seeds) are stored as
+ * Float64 blobs in result_curves (kind = the aggregate's field name, 'plain.' + name for the
+ * transient recipes' plain comparison); criteria, modes and band figures go to the study's
+ * summary JSON. A scenario with a failed run is not aggregated; the study then ends as failed
+ * and its error names each failed run.
+ */
+import type { ScenarioResult, StudyResults } from '@/shared/api/work';
+import { parseRecipe } from '@/shared/engine/recipe';
+import type { ComparisonAggregate, RunResult, ScenarioStudyResult } from '@/shared/engine/study';
+import { assembleStudy, SEED_STRIDE } from '@/shared/engine/study';
+import type { MonteCarloAggregate } from '@/shared/engine/scores/monte-carlo';
+import { blobToFloat64, float64ToBlob, unpackValue } from '../db/float-blob';
+import type { Db } from '../db/knex';
+import { findStudy, findStudyById, listCurves, listRuns, replaceCurves, studyScenarios, type CurveRow } from '../db/studies';
+import { findVersion } from '../db/versioned';
+import { AppError, notFound } from '../errors';
+import { recordAudit } from './audit';
+
+const finite = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+
+interface StoredComparison {
+  pass: boolean;
+  criteria: ComparisonAggregate['criteria'];
+  modes: ComparisonAggregate['modes'];
+  figures: Record<string, number | null>;
+}
+
+/** What the study's summary JSON keeps per scenario. */
+export interface StoredScenarioResult {
+  position: number;
+  scenarioId: string;
+  scenarioVersion: number;
+  name: string;
+  seeds: number;
+  failedRuns: number;
+  aggregated: boolean;
+  reference: string | null;
+  referenceNote: string | null;
+  warnings: { message: string; runs: number }[];
+  judged: StoredComparison | null;
+  plain: StoredComparison | null;
+}
+
+export interface StoredStudySummary {
+  pass: boolean | null;
+  scenarios: StoredScenarioResult[];
+}
+
+function figuresOf(a: MonteCarloAggregate): Record<string, number | null> {
+  return {
+    seeds: a.seeds,
+    lines: a.lines,
+    overallCoverage: finite(a.overallCoverage),
+    overallPhaseCoverage: finite(a.overallPhaseCoverage),
+    medianRandomErrorRatio: finite(a.medianRandomErrorRatio),
+  };
+}
+
+function storedComparison(c: ComparisonAggregate): StoredComparison {
+  return { pass: c.pass, criteria: c.criteria, modes: c.modes, figures: figuresOf(c.aggregate) };
+}
+
+/** Every Float64Array field of an aggregate, as curve rows. */
+function curveRows(scenarioId: string, a: MonteCarloAggregate, prefix = ''): CurveRow[] {
+  const rows: CurveRow[] = [];
+  for (const [kind, value] of Object.entries(a)) {
+    if (value instanceof Float64Array) rows.push({ scenario_id: scenarioId, kind: prefix + kind, length: value.length, data: float64ToBlob(value) });
+  }
+  return rows;
+}
+
+/**
+ * Aggregates the stored runs and ends the study as finished (every run stored and none failed)
+ * or failed, in one transaction with its curves and an audit event. Returns the final status.
+ */
+export async function finaliseStudy(db: Db, studyId: string): Promise<{ status: 'finished' | 'failed'; error: string | null }> {
+  const study = await findStudyById(db, studyId);
+  if (!study) throw notFound(`Study ${studyId}`);
+  const recipeRow = await findVersion(db, 'recipes', study.recipe_id, study.recipe_version);
+  const recipe = parseRecipe(JSON.parse(recipeRow!.body));
+  const scenarios = await studyScenarios(db, studyId);
+  const runs = await listRuns(db, studyId, { withScores: true });
+  const curves: CurveRow[] = [];
+  const results: StoredScenarioResult[] = [];
+  const failures: string[] = [];
+  for (const s of scenarios) {
+    const mine = runs.filter((r) => r.position === s.position);
+    const failed = mine.filter((r) => r.status === 'failed');
+    failed.forEach((r) => failures.push(`"${s.name}" seed ${r.seed} (run ${r.seed_index + 1}): ${r.error}`));
+    const base: StoredScenarioResult = {
+      position: s.position,
+      scenarioId: s.scenario_id,
+      scenarioVersion: s.scenario_version,
+      name: s.name,
+      seeds: mine.length - failed.length,
+      failedRuns: failed.length,
+      aggregated: false,
+      reference: null,
+      referenceNote: null,
+      warnings: [],
+      judged: null,
+      plain: null,
+    };
+    if (failed.length > 0 || mine.length < study.seeds) {
+      if (mine.length < study.seeds) failures.push(`"${s.name}": ${study.seeds - mine.length} runs missing`);
+      results.push(base);
+      continue;
+    }
+    const assembled: ScenarioStudyResult = assembleStudy(
+      { recipe, scenarios: [JSON.parse(s.body)], seeds: study.seeds, baseSeed: study.base_seed + s.position * SEED_STRIDE },
+      mine.map((r) => unpackValue<RunResult>(r.line_scores!)),
+    ).results[0];
+    curves.push(...curveRows(s.scenario_id, assembled.judged.aggregate));
+    if (assembled.plain) curves.push(...curveRows(s.scenario_id, assembled.plain.aggregate, 'plain.'));
+    results.push({
+      ...base,
+      aggregated: true,
+      reference: assembled.reference,
+      referenceNote: assembled.referenceNote ?? null,
+      warnings: assembled.warnings,
+      judged: storedComparison(assembled.judged),
+      plain: assembled.plain ? storedComparison(assembled.plain) : null,
+    });
+  }
+  const status = failures.length ? 'failed' : 'finished';
+  const error = failures.length ? `${failures.length} run problem(s): ${failures.slice(0, 10).join('; ')}${failures.length > 10 ? '; …' : ''}` : null;
+  const summary: StoredStudySummary = {
+    pass: status === 'finished' ? results.every((r) => r.judged?.pass === true) : false,
+    scenarios: results,
+  };
+  await db.transaction(async (trx) => {
+    await replaceCurves(trx, studyId, curves);
+    await trx('studies')
+      .where({ id: studyId })
+      .update({ status, summary: JSON.stringify(summary), error, finished_at: Date.now(), current_scenario_id: null });
+    await recordAudit(trx, {
+      labId: study.lab_id,
+      actorUserId: null,
+      action: status === 'finished' ? 'studies.finish' : 'studies.fail',
+      targetType: 'study',
+      targetId: studyId,
+      after: { status, pass: summary.pass, error },
+    });
+  });
+  return { status, error };
+}
+
+const toArray = (a: Float64Array) => Array.from(a, (v) => (Number.isFinite(v) ? v : null));
+
+/** GET /studies/:id/results: the stored aggregates, criteria and per-line curves. */
+export async function getStudyResults(db: Db, labId: string, id: string): Promise<StudyResults> {
+  const study = await findStudy(db, labId, id);
+  if (!study) throw notFound(`Study ${id}`);
+  if (study.status !== 'finished' && study.status !== 'failed') {
+    throw new AppError(409, 'study_not_finished', `This study is ${study.status}; results exist once it has finished.`);
+  }
+  const summary = JSON.parse(study.summary ?? '{"pass":null,"scenarios":[]}') as StoredStudySummary;
+  const rows = await listCurves(db, id);
+  const scenarios: ScenarioResult[] = summary.scenarios.map((s) => {
+    const curves: Record<string, (number | null)[]> = {};
+    const plainCurves: Record<string, (number | null)[]> = {};
+    for (const row of rows.filter((r) => r.scenario_id === s.scenarioId)) {
+      const values = toArray(blobToFloat64(row.data));
+      if (row.kind.startsWith('plain.')) plainCurves[row.kind.slice(6)] = values;
+      else curves[row.kind] = values;
+    }
+    return {
+      scenarioId: s.scenarioId,
+      scenarioVersion: s.scenarioVersion,
+      name: s.name,
+      seeds: s.seeds,
+      failedRuns: s.failedRuns,
+      pass: s.judged?.pass ?? false,
+      reference: s.reference,
+      referenceNote: s.referenceNote,
+      warnings: s.warnings,
+      criteria: s.judged?.criteria ?? [],
+      figures: s.judged?.figures ?? {},
+      modes: (s.judged?.modes ?? []) as unknown as Record<string, unknown>[],
+      curves,
+      plain: s.plain ? { pass: s.plain.pass, criteria: s.plain.criteria, figures: s.plain.figures, modes: s.plain.modes as unknown as Record<string, unknown>[], curves: plainCurves } : null,
+    };
+  });
+  return { studyId: id, status: study.status, engineVersion: study.engine_version, pass: summary.pass, error: study.error, scenarios };
+}
