@@ -25,6 +25,9 @@ export function useMe() {
     staleTime: 60_000,
     // One quick retry: the first screen waits on this answer.
     retry: 1,
+    // After a failure, screens mounting below the gate must not start the check over (that
+    // would put the session back to loading and unmount them again); "Try again" refetches.
+    retryOnMount: false,
   });
 }
 

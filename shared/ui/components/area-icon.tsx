@@ -105,7 +105,7 @@ export function AreaIcon({ name, color = colors.text, size = layout.iconSize }: 
       strokeLinecap="round"
       strokeLinejoin="round"
       aria-hidden
-      accessibilityElementsHidden
+     
     >
       {glyphs[name]}
     </Svg>

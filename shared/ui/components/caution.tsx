@@ -16,7 +16,7 @@ export function Caution({ title = 'Caution', children, testID }: CautionProps) {
   return (
     <View style={styles.box} role="note" aria-label={title} testID={testID}>
       <View style={styles.head}>
-        <Svg width={18} height={18} viewBox="0 0 24 24" aria-hidden accessibilityElementsHidden>
+        <Svg width={18} height={18} viewBox="0 0 24 24" aria-hidden>
           <Path d="M12 3 L22 20 L2 20 Z" fill={colors.warning} />
           <Line x1={12} y1={9} x2={12} y2={14} stroke={colors.onPrimary} strokeWidth={2} />
           <Line x1={12} y1={16.5} x2={12} y2={17.5} stroke={colors.onPrimary} strokeWidth={2} />

@@ -17,7 +17,7 @@ export function PlumbMark({ height = 40, color = colors.plumbLine }: PlumbMarkPr
   const bob = Math.max(3, width * 0.28);
   const bobTop = height - bob * 2.6;
   return (
-    <Svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} aria-hidden accessibilityElementsHidden>
+    <Svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} aria-hidden>
       <Line x1={0} y1={1} x2={width} y2={1} stroke={color} strokeWidth={stroke.rule * 2} />
       <Line x1={cx} y1={1} x2={cx} y2={bobTop} stroke={color} strokeWidth={stroke.rule * 1.5} />
       <Path

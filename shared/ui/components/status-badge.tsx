@@ -24,7 +24,7 @@ const toneStyle: Record<StatusTone, { color: string; tint: string }> = {
 function ToneMark({ tone }: { tone: StatusTone }) {
   const { color } = toneStyle[tone];
   return (
-    <Svg width={12} height={12} viewBox="0 0 12 12" aria-hidden accessibilityElementsHidden>
+    <Svg width={12} height={12} viewBox="0 0 12 12" aria-hidden>
       {tone === 'pass' ? (
         <Path d="M2 6.5 L5 9.5 L10 2.5" stroke={color} strokeWidth={2} fill="none" strokeLinecap="round" />
       ) : tone === 'fail' ? (

@@ -69,7 +69,14 @@ const styles = StyleSheet.create({
     borderRadius: radius.sm,
     backgroundColor: colors.surface,
   },
-  inputFocused: { borderColor: colors.focus, borderWidth: stroke.focus },
+  // One focus mark on every browser: a teal outline outside the border, which stays red on error.
+  inputFocused: {
+    borderColor: colors.focus,
+    outlineStyle: 'solid',
+    outlineWidth: stroke.focus,
+    outlineColor: colors.focus,
+    outlineOffset: stroke.rule,
+  },
   inputError: { borderColor: colors.fail, borderWidth: stroke.focus },
   errorRow: { flexDirection: 'row', gap: space.xs, alignItems: 'flex-start' },
 });

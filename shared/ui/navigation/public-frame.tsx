@@ -39,7 +39,7 @@ const styles = StyleSheet.create({
     borderBottomColor: colors.border,
   },
   brand: { flex: 1 },
-  link: { minHeight: layout.minTouchTarget, justifyContent: 'center', paddingHorizontal: space.sm },
+  link: { paddingVertical: space.md, paddingHorizontal: space.sm },
   linkText: { textDecorationLine: 'underline' },
   main: { flex: 1 },
 });

@@ -1,16 +1,19 @@
-import type { ReactNode } from 'react';
+import { useRef, type ReactNode } from 'react';
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { useSession } from '@/shared/ui/api/use-session';
 import { AppText, PlumbMark, productName } from '@/shared/ui/components';
 import { colors, space } from '@/shared/ui/theme';
 
 /**
- * Holds the app back until the server has said who is signed in, so no screen flashes before
- * the redirect. The group layouts then route by the answer (see `signInHref`, `publicPaths`).
+ * Holds the app back until the server has first said who is signed in, so no screen flashes
+ * before a redirect. Later re-checks do not unmount the app; the group gates (route-gates.tsx)
+ * route by the answer.
  */
 export function SessionGate({ children }: { children: ReactNode }) {
   const session = useSession();
-  if (session.status === 'loading') return <SessionSplash />;
+  const answered = useRef(false);
+  if (session.status !== 'loading') answered.current = true;
+  if (!answered.current) return <SessionSplash />;
   return <>{children}</>;
 }
 
@@ -40,8 +43,8 @@ export function safeNextPath(next: unknown): string {
   return value;
 }
 
-export function signInHref(pathname: string) {
-  return pathname === '/' ? '/sign-in' : { pathname: '/sign-in' as const, params: { next: pathname } };
+export function signInHref(pathname: string): string {
+  return pathname === '/' ? '/sign-in' : `/sign-in?next=${encodeURIComponent(pathname)}`;
 }
 
 const styles = StyleSheet.create({

@@ -1,3 +1,4 @@
+import { useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import type { MeResponse } from '@/shared/api/auth';
 import { errorText } from '@/shared/ui/api/client';
@@ -10,6 +11,7 @@ const roleWords = { admin: 'Lab admin', analyst: 'Analyst', reviewer: 'Reviewer'
 /** The signed-in header: which lab, who is signed in, and the way out. */
 export function ShellHeader({ me, showBrand }: { me: MeResponse; showBrand: boolean }) {
   const signOut = useSignOut();
+  const router = useRouter();
   const membership = me.memberships[0];
   return (
     <View role="banner" style={styles.header}>
@@ -35,7 +37,7 @@ export function ShellHeader({ me, showBrand }: { me: MeResponse; showBrand: bool
           compact
           busy={signOut.isPending}
           busyLabel="Signing out…"
-          onPress={() => signOut.mutate()}
+          onPress={() => signOut.mutate(undefined, { onSuccess: () => router.replace('/sign-in') })}
         />
       </View>
       {signOut.isError ? (

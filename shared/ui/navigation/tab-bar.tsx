@@ -22,10 +22,15 @@ export function TabBar({ pathname }: { pathname: string }) {
           active={item.active}
           role="tab"
           testID={`tab-${item.id}`}
+          containerStyle={styles.link}
           style={({ pressed }) => [styles.item, pressed && styles.itemPressed]}
         >
-          {item.active ? <View style={styles.plumb} /> : null}
-          {item.active ? <View style={styles.bob} /> : null}
+          {item.active ? (
+            <View style={styles.marker}>
+              <View style={styles.plumb} />
+              <View style={styles.bob} />
+            </View>
+          ) : null}
           <AreaIcon name={item.id} color={item.active ? colors.text : colors.textMuted} />
           <AppText variant={item.active ? 'tabActive' : 'tab'} tone={item.active ? 'default' : 'muted'} numberOfLines={1}>
             {item.label}
@@ -46,26 +51,25 @@ const styles = StyleSheet.create({
     borderTopWidth: stroke.rule,
     borderTopColor: colors.border,
   },
+  link: { flex: 1, minWidth: 0 },
   item: {
     flex: 1,
     alignItems: 'center',
     justifyContent: 'center',
     gap: space.hair,
-    paddingTop: space.sm,
+    paddingTop: space.md,
     minWidth: layout.minTouchTarget,
   },
   itemPressed: { backgroundColor: colors.surfaceSunken },
   // The plumb line: a thin brass line hanging from the bar's top edge to a small bob.
+  marker: { position: 'absolute', top: 0, left: 0, right: 0, alignItems: 'center' },
   plumb: {
-    position: 'absolute',
-    top: 0,
     width: stroke.plumb - 1,
-    height: space.sm,
+    height: space.xs + space.hair,
     backgroundColor: colors.plumbLine,
   },
   bob: {
-    position: 'absolute',
-    top: space.sm - space.hair,
+    marginTop: -bobSize / 2,
     width: bobSize,
     height: bobSize,
     transform: [{ rotate: '45deg' }],
