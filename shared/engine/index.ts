@@ -18,6 +18,9 @@ export * from './process';
 
 export * from './random';
 export * from './systems';
+export * from './scenario';
+export * from './synthesis/excitation-schema';
+export { noiseSchema, type NoiseSpec } from './synthesis/noise';
 
 export * from './scores/line-scores';
 export * from './scores/modes';
@@ -27,3 +30,7 @@ export * from './scores/mode-aggregate';
 export * from './scores/criteria';
 export * from './scores/resolution-bias';
 export * from './scores/windowed-reference';
+export * from './scores/expected-coherence';
+
+export * from './study';
+export * from './advice';

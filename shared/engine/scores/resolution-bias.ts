@@ -114,6 +114,31 @@ export function smoothedFrf(
   return { re, im };
 }
 
+/**
+ * Coherence lost to leakage alone, per line: |E[Ĝyx]|² / (E[Ĝxx]·E[Ĝyy]) with the kernel sums
+ * E[Ĝyx] ∝ Σ K·H and E[Ĝyy] ∝ Σ K·|H|² (flat input spectrum; the Cauchy–Schwarz inequality keeps
+ * it in [0, 1]). It multiplies the noise coherence of scores/expected-coherence.ts.
+ */
+export function leakageCoherence(
+  frf: (fHz: Float64Array) => ComplexArray,
+  fHz: Float64Array,
+  kernel: PowerKernel,
+  resolutionHz: number,
+): Float64Array {
+  const h = smoothedFrf(frf, fHz, kernel, resolutionHz);
+  const m = kernel.offsetsBins.length;
+  const grid = new Float64Array(m);
+  const out = new Float64Array(fHz.length);
+  for (let i = 0; i < fHz.length; i++) {
+    for (let j = 0; j < m; j++) grid[j] = Math.abs(fHz[i] - kernel.offsetsBins[j] * resolutionHz);
+    const g = frf(grid);
+    let power = 0;
+    for (let j = 0; j < m; j++) power += kernel.weights[j] * (g.re[j] * g.re[j] + g.im[j] * g.im[j]);
+    out[i] = power > 0 ? Math.min(1, (h.re[i] * h.re[i] + h.im[i] * h.im[i]) / power) : 1;
+  }
+  return out;
+}
+
 export interface ResolutionBias {
   /** |E[Ĥ1]|/|H| − 1 at the resonance from the kernel sum (fraction; negative = low). */
   kernel: number;
