@@ -22,7 +22,7 @@ import { runStudy, type StudyRunHooks } from './study-runner';
 export interface StudyQueue {
   /** Wakes the scheduler after a study and its job were committed. */
   enqueue(studyId: string): void;
-  /** Stops scheduling the study's remaining runs; resolves when it is marked cancelled. */
+  /** Passes on a cancellation already stored on the study (cancel_requested_at). */
   cancel(studyId: string): Promise<void>;
   /** Live progress events of a study; returns the unsubscribe function. */
   subscribe(studyId: string, listener: (e: StudyEvent) => void): () => void;
@@ -86,9 +86,10 @@ export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
         const { studyId } = JSON.parse(job.payload) as { studyId: string };
         if (!(await claimJob(deps.db, job.id))) continue;
         try {
-          const outcome = await runStudy(deps, studyId, hooks);
+          const settled = (o: 'finished' | 'failed' | 'cancelled') => finishJob(deps.db, job.id, o === 'finished' ? 'done' : o);
+          const outcome = await runStudy(deps, studyId, { ...hooks, settled });
           if (outcome === 'interrupted') return; // shutting down: the job stays running for the next start
-          await finishJob(deps.db, job.id, outcome === 'failed' ? 'failed' : outcome === 'cancelled' ? 'cancelled' : 'done');
+          await settled(outcome);
         } catch (err) {
           if (shutdown.signal.aborted) return;
           deps.logger.error({ err, studyId }, 'study job failed');

@@ -19,6 +19,8 @@ export interface StudyRunHooks {
   stopping: AbortSignal;
   progress(studyId: string, progress: StudyProgress): void;
   end(studyId: string, progress: StudyProgress, error: string | null): void;
+  /** Called once the study's final state is stored, before the author is mailed. */
+  settled?(outcome: 'finished' | 'failed' | 'cancelled'): Promise<void>;
 }
 
 export type StudyOutcome = 'finished' | 'failed' | 'cancelled' | 'interrupted';
@@ -105,6 +107,7 @@ export async function runStudy(deps: RunnerDeps, studyId: string, hooks: StudyRu
   const final = await finaliseStudy(db, studyId);
   current = null;
   const end = { ...progress(final.status), etaSeconds: null };
+  await hooks.settled?.(final.status);
   hooks.end(studyId, end, final.error);
   await mailAuthor(deps, study, final.status, final.error);
   return final.status;
@@ -139,6 +142,7 @@ async function cancelRequested(db: Db, studyId: string): Promise<boolean> {
 async function endCancelled(deps: RunnerDeps, study: StudyRow, hooks: StudyRunHooks): Promise<'cancelled'> {
   const fresh = (await findStudyById(deps.db, study.id)) ?? study;
   await updateStudy(deps.db, study.id, { status: 'cancelled', finished_at: Date.now(), current_scenario_id: null });
+  await hooks.settled?.('cancelled');
   hooks.end(
     study.id,
     {

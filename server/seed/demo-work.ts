@@ -132,5 +132,5 @@ async function runDemoStudy(db: Db, studyId: string) {
     studyId,
     { stopping: new AbortController().signal, progress: () => undefined, end: () => undefined },
   );
-  await finishJob(db, job.id, outcome === 'failed' ? 'failed' : 'done');
+  await finishJob(db, job.id, outcome === 'finished' ? 'done' : outcome === 'interrupted' ? 'failed' : outcome);
 }
