@@ -25,7 +25,7 @@ import { integrateResponse } from './synthesis/nonlinear';
 import { addWhiteNoise, noiseSigma } from './synthesis/noise';
 import { resolveScenario, type SynthesisPlan } from './synthesis/plan';
 import type { Scenario, ScenarioInput } from './synthesis/scenario-schema';
-import { nextPowerOfTwo, oneSidedSpectrum, realFromSpectrum } from './synthesis/spectrum';
+import { nextPowerOfTwo, oneSidedSpectrum, realFromSpectrum, transformsFor, type RealTransforms } from './synthesis/spectrum';
 
 export { scenarioSchema, type Scenario, type ScenarioInput, type ScenarioErrors } from './synthesis/scenario-schema';
 export { resolveScenario, type SynthesisPlan } from './synthesis/plan';
@@ -76,9 +76,10 @@ export function simulateScenario(input: Scenario | ScenarioInput, seed: number):
     raw = new Float64Array(length);
     raw.set(excitationSamples(s.excitation, n, fs, random));
   }
-  const spectrum = excitationSpectrum(raw);
+  const transforms = transformsFor(length);
+  const spectrum = excitationSpectrum(raw, transforms);
   const nyquistLine = Math.abs(oneSidedNyquist(raw)) / length;
-  const force = realFromSpectrum(spectrum, length);
+  const force = realFromSpectrum(spectrum, length, transforms);
   const factor = levelFactor(s.excitation.level, force, n);
   for (let k = 0; k < spectrum.re.length; k++) {
     spectrum.re[k] *= factor;
@@ -97,8 +98,8 @@ export function simulateScenario(input: Scenario | ScenarioInput, seed: number):
   const channel = { delayS: errors.delayS, gain: errors.gainMismatch, phaseDeg: errors.phaseMismatchDeg };
   const cubic = errors.cubicStiffness;
   const responseRecord = cubic
-    ? integratedResponse(s, plan, spectrum, warnings)
-    : exactResponse(spectrum, { sampleRateHz: fs, frf: system.frf, channel }).slice(0, n);
+    ? integratedResponse(s, plan, spectrum, transforms, warnings)
+    : exactResponse(spectrum, { sampleRateHz: fs, frf: system.frf, channel, transforms }).slice(0, n);
 
   // 3. Clipping.
   const inputMask = new Uint8Array(n);
@@ -179,6 +180,7 @@ function integratedResponse(
   s: Scenario,
   plan: SynthesisPlan,
   spectrum: { re: Float64Array; im: Float64Array },
+  transforms: RealTransforms,
   warnings: string[],
 ): Float64Array {
   const cubic = s.errors.cubicStiffness!;
@@ -195,6 +197,7 @@ function integratedResponse(
     delayS: s.errors.delayS,
     preRollSamples: plan.preRollSamples,
     recordSamples: plan.recordSamples,
+    transforms,
   });
   for (let i = 0; i < y.length; i++) {
     if (!Number.isFinite(y[i])) {

@@ -14,7 +14,7 @@
  */
 import type { ComplexArray } from '../types';
 import { EngineInputError } from '../errors';
-import { oneSidedSpectrum, realFromSpectrum } from './spectrum';
+import { oneSidedSpectrum, realFromSpectrum, transformsFor, type RealTransforms } from './spectrum';
 
 export interface OutputChannelErrors {
   /** Delay of the output channel against the input channel, s (may be negative). */
@@ -27,6 +27,8 @@ export interface OutputChannelErrors {
 
 export interface ExactSynthesisOptions {
   sampleRateHz: number;
+  /** Transforms of the synthesis length to reuse (optional). */
+  transforms?: RealTransforms;
   /** The exact FRF of the chosen quantity at frequencies in Hz. */
   frf: (fHz: Float64Array) => ComplexArray;
   channel?: OutputChannelErrors;
@@ -46,9 +48,9 @@ function requirePowerOfTwo(field: string, n: number): void {
 }
 
 /** One-sided spectrum of x with the Nyquist line removed (length L/2 + 1). */
-export function excitationSpectrum(x: Float64Array): ComplexArray {
+export function excitationSpectrum(x: Float64Array, t?: RealTransforms): ComplexArray {
   requirePowerOfTwo('synthesis.length', x.length);
-  const s = oneSidedSpectrum(x);
+  const s = oneSidedSpectrum(x, t ?? transformsFor(x.length));
   s.re[x.length / 2] = 0;
   s.im[x.length / 2] = 0;
   return s;
@@ -84,12 +86,14 @@ export function exactResponse(x: ComplexArray, o: ExactSynthesisOptions): Float6
   });
   // DC must stay real (it is, for a real H(0) and real gain); drop any rounding residue.
   y.im[0] = 0;
-  return realFromSpectrum(y, length);
+  return realFromSpectrum(y, length, o.transforms ?? transformsFor(length));
 }
 
 /** Input record IFFT(X) and exact response IFFT(H·G·X), both of length L. */
 export function synthesiseFromSpectrum(x: ComplexArray, o: ExactSynthesisOptions): SynthesisedPair {
-  return { input: realFromSpectrum(x, 2 * (x.re.length - 1)), output: exactResponse(x, o) };
+  const length = 2 * (x.re.length - 1);
+  const t = o.transforms ?? transformsFor(length);
+  return { input: realFromSpectrum(x, length, t), output: exactResponse(x, { ...o, transforms: t }) };
 }
 
 /** Exact synthesis from time samples x of length L = 2^p (see the module doc). */

@@ -14,7 +14,7 @@
  */
 import type { ComplexArray, FrfQuantity } from '../types';
 import type { PhysicalMatrices } from '../systems/physical';
-import { realPairFromSpectra } from './spectrum';
+import { transformsFor, type RealTransforms } from './spectrum';
 
 export interface CubicElement {
   /** Cubic stiffness k₃, N/m³. */
@@ -37,36 +37,55 @@ export interface TimeIntegrationOptions {
   preRollSamples: number;
   /** Samples of the record. */
   recordSamples: number;
+  /** Transforms of the synthesis length to reuse (optional). */
+  transforms?: RealTransforms;
 }
 
-/** Force at the 2R sub-sample phases of every sample: index n·2R + j, time (n + j/(2R))/fs − τ. */
-export function oversampledForce(spectrum: ComplexArray, phases: number, shiftSamples: number): Float64Array {
+/**
+ * Force at the 2R sub-sample phases of every sample: phase j of sample n at time
+ * (n + j/(2R))/fs − τ, as `phases[j][n]` (one array per phase).
+ */
+export function oversampledForce(
+  spectrum: ComplexArray,
+  count: number,
+  shiftSamples: number,
+  transforms?: RealTransforms,
+): Float64Array[] {
   const half = spectrum.re.length - 1;
   const length = 2 * half;
-  const out = new Float64Array(phases * length);
-  const shifted = (delta: number): ComplexArray => {
-    const re = new Float64Array(half + 1);
-    const im = new Float64Array(half + 1);
+  const t = transforms ?? transformsFor(length);
+  const a = { re: new Float64Array(half + 1), im: new Float64Array(half + 1) };
+  const b = { re: new Float64Array(half + 1), im: new Float64Array(half + 1) };
+  const shift = (target: ComplexArray, delta: number) => {
+    // X[k]·exp(2πi·k·δ/L), the rotation by recurrence, re-seeded every 64 lines for accuracy.
+    const step = (2 * Math.PI * delta) / length;
+    const cs = Math.cos(step);
+    const sn = Math.sin(step);
+    let c = 1;
+    let s = 0;
     for (let k = 0; k < half; k++) {
-      const a = (2 * Math.PI * k * delta) / length;
-      const c = Math.cos(a);
-      const s = Math.sin(a);
-      re[k] = spectrum.re[k] * c - spectrum.im[k] * s;
-      im[k] = spectrum.re[k] * s + spectrum.im[k] * c;
+      if ((k & 63) === 0) {
+        c = Math.cos(step * k);
+        s = Math.sin(step * k);
+      }
+      target.re[k] = spectrum.re[k] * c - spectrum.im[k] * s;
+      target.im[k] = spectrum.re[k] * s + spectrum.im[k] * c;
+      const next = c * cs - s * sn;
+      s = c * sn + s * cs;
+      c = next;
     }
-    im[0] = 0;
-    return { re, im };
+    target.im[0] = 0;
   };
-  for (let j = 0; j < phases; j += 2) {
-    const a = shifted(j / phases - shiftSamples);
-    const b = shifted((j + 1) / phases - shiftSamples);
-    const [xa, xb] = realPairFromSpectra(a, b, length);
-    for (let n = 0; n < length; n++) {
-      out[n * phases + j] = xa[n];
-      out[n * phases + j + 1] = xb[n];
-    }
+  const phases: Float64Array[] = [];
+  for (let j = 0; j < count; j += 2) {
+    shift(a, j / count - shiftSamples);
+    shift(b, (j + 1) / count - shiftSamples);
+    const xa = new Float64Array(length);
+    const xb = new Float64Array(length);
+    t.inversePair(a, b, xa, xb);
+    phases.push(xa, xb);
   }
-  return out;
+  return phases;
 }
 
 /** Integrates the record (module doc); returns the output-node response in the quantity's unit. */
@@ -76,7 +95,7 @@ export function integrateResponse(o: TimeIntegrationOptions): Float64Array {
   const r = o.oversampling;
   const phases = 2 * r;
   const length = 2 * (o.spectrum.re.length - 1);
-  const force = oversampledForce(o.spectrum, phases, (o.delayS ?? 0) * o.sampleRateHz);
+  const force = oversampledForce(o.spectrum, phases, (o.delayS ?? 0) * o.sampleRateHz, o.transforms);
   const h = 1 / (r * o.sampleRateHz);
   const inverseMass = Float64Array.from(p.mass, (m) => 1 / m);
   const cubicA = o.cubic && o.cubic.between[0] !== 'ground' ? o.cubic.between[0] : -1;
@@ -115,19 +134,19 @@ export function integrateResponse(o: TimeIntegrationOptions): Float64Array {
 
   for (let s = -o.preRollSamples; s < o.recordSamples; s++) {
     const idx = ((s % length) + length) % length;
-    const base = idx * phases;
+    const nextIdx = idx + 1 < length ? idx + 1 : 0;
     if (s >= 0) {
       if (quantity === 'receptance') out[s] = x[outputNode];
       else if (quantity === 'mobility') out[s] = v[outputNode];
       else {
-        acceleration(x, v, force[base], a0);
+        acceleration(x, v, force[0][idx], a0);
         out[s] = a0[outputNode];
       }
     }
     for (let sub = 0; sub < r; sub++) {
-      const fa = force[base + 2 * sub];
-      const fm = force[base + 2 * sub + 1];
-      const fb = sub + 1 < r ? force[base + 2 * sub + 2] : force[((idx + 1) % length) * phases];
+      const fa = force[2 * sub][idx];
+      const fm = force[2 * sub + 1][idx];
+      const fb = sub + 1 < r ? force[2 * sub + 2][idx] : force[0][nextIdx];
       acceleration(x, v, fa, k1);
       for (let i = 0; i < n; i++) {
         v2[i] = v[i] + 0.5 * h * k1[i];
