@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { meResponseSchema, signInRequestSchema } from '@/shared/api/auth';
+import { meResponseSchema, sessionResponseSchema, signInRequestSchema } from '@/shared/api/auth';
 import { openRoute } from '../auth/permissions';
 import type { Auth } from '../auth/lucia';
 import type { Db } from '../db/knex';
@@ -28,6 +28,12 @@ export function authRoutes(deps: { db: Db; auth: Auth; limiter: AttemptLimiter }
     }
     res.append('Set-Cookie', deps.auth.createBlankSessionCookie().serialize());
     res.status(204).end();
+  });
+  openRoute(r, {
+    method: 'get', path: '/auth/session', action: 'public',
+    summary: 'Who is signed in on this session, or null (always 200)', response: sessionResponseSchema,
+  }, async (req, res) => {
+    res.json({ me: req.user ? await describeUser(deps.db, req.user.id) : null });
   });
   openRoute(r, {
     method: 'get', path: '/me', action: 'signed-in', summary: 'The signed-in user, with their labs and roles', response: meResponseSchema,

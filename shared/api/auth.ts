@@ -31,6 +31,11 @@ export const meResponseSchema = z.object({
 });
 export type MeResponse = z.infer<typeof meResponseSchema>;
 
+/** GET /api/v1/auth/session: who is signed in, or `null` — always 200, so a signed-out visit
+ * does not make the browser log a failed request. */
+export const sessionResponseSchema = z.object({ me: meResponseSchema.nullable() });
+export type SessionResponse = z.infer<typeof sessionResponseSchema>;
+
 /** Every error the API returns has this shape. */
 export const apiErrorSchema = z.object({
   error: z.object({

@@ -1,19 +1,19 @@
 import { screen, within } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { demoMe, installFakeApi, signedOut } from './support/fake-api';
+import { demoMe, installFakeApi, signedInAs, signedOut } from './support/fake-api';
 import { press } from './support/form';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
 jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
 
-const signedIn = { status: 200, body: demoMe };
+const signedIn = signedInAs(demoMe);
 
 
 describe('navigation at phone width (390 px)', () => {
   beforeEach(() => setWindowWidth(390));
 
   test('a bottom tab bar shows five areas and More, with the current area selected', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedIn });
+    installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/');
 
     const tabBar = screen.getByRole('tablist', { name: 'Areas' });
@@ -27,7 +27,7 @@ describe('navigation at phone width (390 px)', () => {
   });
 
   test('More lists the other areas, and is the selected tab while one of them is open', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedIn });
+    installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/more');
     const more = ['Standards', 'Reviews', 'Lab', 'About'];
     for (const name of more) expect(screen.getByRole('link', { name })).toBeTruthy();
@@ -39,7 +39,7 @@ describe('navigation at phone width (390 px)', () => {
   });
 
   test('a tab opens its area, whose screen says what the area is for', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedIn });
+    installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/');
 
     await press('tab', 'Scenarios');
@@ -55,7 +55,7 @@ describe('navigation at wide width (1280 px)', () => {
   beforeEach(() => setWindowWidth(1280));
 
   test('a side rail lists every area, marks the current one, and there is no tab bar', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedIn });
+    installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/studies');
 
     const rail = screen.getByRole('navigation', { name: 'Areas' });
@@ -82,7 +82,7 @@ describe('signed-in header', () => {
 
   test('shows the lab and the user, and signing out returns to sign-in', async () => {
     const api = installFakeApi({
-      'GET /api/v1/me': signedIn,
+      'GET /api/v1/auth/session': signedIn,
       'POST /api/v1/auth/sign-out': { status: 204 },
     });
     await renderApp('/recipes');
@@ -102,7 +102,7 @@ describe('About', () => {
   beforeEach(() => setWindowWidth(390));
 
   test('a signed-out visitor can read the three cautions and the version', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedOut });
+    installFakeApi({ 'GET /api/v1/auth/session': signedOut });
     await renderApp('/about');
 
     expect(window.location.pathname).toBe('/about');

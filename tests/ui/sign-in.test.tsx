@@ -1,7 +1,7 @@
 import { screen } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
 import { waitMs } from './support/dom';
-import { demoMe, installFakeApi, signedOut } from './support/fake-api';
+import { demoMe, installFakeApi, signedInAs, signedOut } from './support/fake-api';
 import { press, typeInto } from './support/form';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
@@ -20,7 +20,7 @@ function signInCalls(calls: { method: string; path: string }[]) {
 
 describe('sign-in screen', () => {
   test('an empty form shows the schema errors under both fields and sends nothing', async () => {
-    const api = installFakeApi({ 'GET /api/v1/me': signedOut });
+    const api = installFakeApi({ 'GET /api/v1/auth/session': signedOut });
     await renderApp('/sign-in');
     expect(screen.getByTestId('screen-title').textContent).toBe('Plumbline');
 
@@ -33,7 +33,7 @@ describe('sign-in screen', () => {
   });
 
   test('an address without a domain is refused before it is sent', async () => {
-    const api = installFakeApi({ 'GET /api/v1/me': signedOut });
+    const api = installFakeApi({ 'GET /api/v1/auth/session': signedOut });
     await renderApp('/sign-in');
     await typeInto('E-mail', 'mira.okafor@');
     await typeInto('Password', 'a password');
@@ -46,7 +46,7 @@ describe('sign-in screen', () => {
   });
 
   test("a 401 from the server shows the server's message", async () => {
-    const api = installFakeApi({ 'GET /api/v1/me': signedOut, 'POST /api/v1/auth/sign-in': badCredentials });
+    const api = installFakeApi({ 'GET /api/v1/auth/session': signedOut, 'POST /api/v1/auth/sign-in': badCredentials });
     await renderApp('/sign-in');
     await typeInto('E-mail', 'mira.okafor@example.test');
     await typeInto('Password', 'not the password');
@@ -59,7 +59,7 @@ describe('sign-in screen', () => {
   });
 
   test('a 401 without a body still says that the e-mail or password is not right', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedOut, 'POST /api/v1/auth/sign-in': { status: 401 } });
+    installFakeApi({ 'GET /api/v1/auth/session': signedOut, 'POST /api/v1/auth/sign-in': { status: 401 } });
     await renderApp('/sign-in');
     await typeInto('E-mail', 'mira.okafor@example.test');
     await typeInto('Password', 'not the password');
@@ -71,7 +71,7 @@ describe('sign-in screen', () => {
 
   test('a good sign-in sends the normalised address with cookies and opens the shell', async () => {
     const api = installFakeApi({
-      'GET /api/v1/me': signedOut,
+      'GET /api/v1/auth/session': signedOut,
       'POST /api/v1/auth/sign-in': { status: 200, body: demoMe },
     });
     await renderApp('/sign-in');
@@ -92,7 +92,7 @@ describe('sign-in screen', () => {
   });
 
   test('a signed-out visit to an area goes to sign-in and returns there afterwards', async () => {
-    installFakeApi({ 'GET /api/v1/me': signedOut, 'POST /api/v1/auth/sign-in': { status: 200, body: demoMe } });
+    installFakeApi({ 'GET /api/v1/auth/session': signedOut, 'POST /api/v1/auth/sign-in': { status: 200, body: demoMe } });
     await renderApp('/studies');
     expect(window.location.pathname + window.location.search).toBe('/sign-in?next=%2Fstudies');
 
@@ -116,7 +116,7 @@ describe('sign-in screen', () => {
     expect(screen.getByLabelText('E-mail')).toBeTruthy();
 
     // The server is back and the browser still holds a session: "Try again" opens the shell.
-    installFakeApi({ 'GET /api/v1/me': { status: 200, body: demoMe } });
+    installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
     await press('button', 'Try again');
     expect(screen.getByTestId('screen-title').textContent).toBe('Bench');
   });

@@ -1,6 +1,6 @@
 /** The signed-in session: who is signed in, to which labs, and the sign-in/out actions. */
 import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { meResponseSchema, type MeResponse, type SignInRequest } from '@/shared/api/auth';
+import { meResponseSchema, sessionResponseSchema, type MeResponse, type SignInRequest } from '@/shared/api/auth';
 import { api, isApiStatus } from './client';
 
 export const sessionKeys = {
@@ -8,14 +8,10 @@ export const sessionKeys = {
   me: () => [...sessionKeys.all, 'me'] as const,
 };
 
-/** GET /api/v1/me. `null` means signed out (the server answered 401). */
+/** GET /api/v1/auth/session. `null` means signed out. */
 export async function fetchMe(signal?: AbortSignal): Promise<MeResponse | null> {
-  try {
-    return await api.get('/api/v1/me', { schema: meResponseSchema, signal });
-  } catch (err) {
-    if (isApiStatus(err, 401)) return null;
-    throw err;
-  }
+  const answer = await api.get('/api/v1/auth/session', { schema: sessionResponseSchema, signal });
+  return answer.me;
 }
 
 export function useMe() {

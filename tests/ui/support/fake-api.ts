@@ -9,10 +9,9 @@ export const demoMe: MeResponse = {
   memberships: [{ labId: 'lab-harbor-ridge', labName: 'Harbor Ridge Test Lab', role: 'analyst' }],
 };
 
-export const signedOut: FakeAnswer = {
-  status: 401,
-  body: { error: { code: 'unauthenticated', message: 'Sign in to continue.' } },
-};
+/** GET /api/v1/auth/session answers 200 with `{ me: null }` when nobody is signed in. */
+export const signedOut: FakeAnswer = { status: 200, body: { me: null } };
+export const signedInAs = (me: MeResponse): FakeAnswer => ({ status: 200, body: { me } });
 
 export function installFakeApi(routes: Record<string, Handler>) {
   const calls: { method: string; path: string; body: unknown; credentials?: RequestCredentials }[] = [];
