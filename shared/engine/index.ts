@@ -34,3 +34,4 @@ export * from './scores/expected-coherence';
 
 export * from './study';
 export * from './advice';
+export * from './worker-run';

@@ -15,6 +15,7 @@ import { ENGINE_VERSION } from '@/shared/engine/version';
 import { EngineInputError } from '@/shared/engine/errors';
 import { assembleStudy, planStudy, runScenarioSeed, runStudy, studySeed, type RunResult } from '@/shared/engine/study';
 import type { ScenarioInput } from '@/shared/engine/scenario';
+import { runStudyChunk, splitTasks } from '@/shared/engine/worker-run';
 import { hannRecipe, sdofRandomScenario, toBytes } from './study-helpers';
 
 function periodicScenario(delayS?: number): ScenarioInput {
@@ -190,5 +191,27 @@ describe('Monte Carlo: coverage and Bendat & Piersol random error of |H1|', () =
     expect(inside / a.lines).toBeGreaterThanOrEqual(0.95);
     // The noise makes the errors real: the predicted error is a few per cent, not zero.
     expect(a.predictedRandomError[0]).toBeGreaterThan(0.01);
+  });
+});
+
+describe('worker-run chunks', () => {
+  const scenarios = [sdofRandomScenario({ snrDb: 20, durationS: 32 }), sdofRandomScenario({ name: 'second', zeta: 0.05, durationS: 32 })];
+  const recipe = hannRecipe();
+
+  it('split into chunks, cloned as a thread would receive them, they assemble to the same bytes', () => {
+    const tasks = planStudy({ scenarios, seeds: 3 });
+    const chunks = splitTasks(tasks, 4);
+    expect(chunks.map((c) => c.length)).toEqual([2, 2, 1, 1]);
+    const outputs = chunks.reverse().map((c) => structuredClone(runStudyChunk(structuredClone({ recipe, scenarios, tasks: c }))));
+    const runs = outputs.flatMap((o) => o.runs);
+    expect(outputs.every((o) => o.failures.length === 0 && o.engineVersion === ENGINE_VERSION)).toBe(true);
+    expect(toBytes(assembleStudy({ recipe, scenarios, seeds: 3 }, runs))).toBe(toBytes(runStudy({ recipe, scenarios, seeds: 3 })));
+  });
+
+  it('a failing run is reported by seed with the engine message; the others still run', () => {
+    const out = runStudyChunk({ recipe, scenarios, tasks: [{ scenarioIndex: 0, run: 0, seed: -1 }, { scenarioIndex: 0, run: 1, seed: 2 }] });
+    expect(out.runs.map((r) => r.seed)).toEqual([2]);
+    expect(out.failures).toEqual([{ scenarioIndex: 0, seed: -1, error: expect.stringMatching(/^seed=-1/) }]);
+    expect(splitTasks([], 3)).toEqual([[]]);
   });
 });
