@@ -15,7 +15,7 @@ const noProject = {
 };
 
 export default tseslint.config(
-  { ignores: ['node_modules/', 'dist/', '.expo/', 'data/', 'coverage/', 'expo-env.d.ts', 'tests/e2e/screenshots/'] },
+  { ignores: ['node_modules/', 'dist/', '.expo/', 'data/', 'coverage/', '.tmp/', 'expo-env.d.ts', 'tests/e2e/screenshots/'] },
   ...tseslint.configs.recommended,
   {
     rules: {
