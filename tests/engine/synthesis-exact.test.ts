@@ -171,3 +171,17 @@ describe('records from rest', () => {
     expect(integrated.report.nonlinear).toBe(false);
   });
 });
+
+describe('exact synthesis input rules', () => {
+  it.each([
+    ['a length that is not a power of two', 12],
+    ['a length below 4', 2],
+  ])('rejects %s naming synthesis.length', (_name, length) => {
+    try {
+      synthesiseExact(new Float64Array(length), { sampleRateHz: fs, frf: system.frf });
+      throw new Error('no error');
+    } catch (e) {
+      expect((e as { field?: string }).field).toBe('synthesis.length');
+    }
+  });
+});

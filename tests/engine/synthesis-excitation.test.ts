@@ -8,7 +8,8 @@
  * - the Fourier transform of a half-sine pulse of duration d and height A,
  *   |F(f)| = (2Ad/π)·|cos(πfd)/(1 − 4f²d²)| (standard transform tables).
  */
-import { excitationSamples, levelFactor } from '@/shared/engine/synthesis/excitation';
+import { bandLimitedRandom, excitationSamples, levelFactor, multisinePeriod } from '@/shared/engine/synthesis/excitation';
+import { EngineInputError } from '@/shared/engine/errors';
 import type { ExcitationSpec } from '@/shared/engine/synthesis/excitation-schema';
 import { createRandom } from '@/shared/engine/random';
 import { realFft } from '@/shared/engine/fft';
@@ -188,5 +189,31 @@ describe('impact (Fourier transform of a half-sine pulse)', () => {
     // Nyquist balancing scales samples by (1 ± α), |α| ≈ 1/(40²) here.
     expect(second / first).toBeCloseTo(0.3, 3);
     expect(Math.abs(x[80])).toBe(0);
+  });
+});
+
+describe('excitation input rules', () => {
+  const narrow = { lowHz: 100.01, highHz: 100.02 }; // between two lines of either grid below
+  it.each([
+    ['random', () => bandLimitedRandom(narrow, 4096, fs, random())],
+    ['multisine', () => multisinePeriod(narrow, 512, fs, random(), 'flat')],
+    ['a random scenario', () =>
+      simulateScenario(
+        {
+          name: 'narrow',
+          system: { kind: 'sdof', quantity: 'receptance', naturalFrequencyHz: 50, dampingRatio: 0.05, stiffnessNPerM: 1e4 },
+          acquisition: { sampleRateHz: fs, durationS: 4 },
+          excitation: { kind: 'random', band: narrow, level: { rmsN: 1 } },
+        },
+        1,
+      )],
+  ])('rejects a band without lines for %s, naming excitation.band', (_name, run) => {
+    try {
+      run();
+      throw new Error('no error');
+    } catch (e) {
+      expect(e).toBeInstanceOf(EngineInputError);
+      expect((e as EngineInputError).field).toBe('excitation.band');
+    }
   });
 });
