@@ -21,7 +21,7 @@ import { processRecord } from './process';
 import type { Recipe } from './recipe';
 import { simulateScenario, parseScenario, type Scenario, type ScenarioInput } from './scenario';
 import { systemModalTerms } from './systems';
-import { scoreFrf, type FrfScore } from './scores/line-scores';
+import { scoreFrf, scoresAtFrequencies, type FrfScore, type PointScore } from './scores/line-scores';
 import { exactModeReferences, modeErrors, type ModeError } from './scores/modes';
 import { aggregateRuns, type MonteCarloAggregate, type SeedLineScores } from './scores/monte-carlo';
 import { aggregateModes, type ModeAggregate } from './scores/mode-aggregate';
@@ -46,6 +46,9 @@ export interface Comparison {
   score: FrfScore;
   modes: ModeError[];
   lines: SeedLineScores;
+  /** Scores of the lines nearest each natural frequency and anti-resonance inside the band. */
+  atResonances: PointScore[];
+  atAntiResonances: PointScore[];
 }
 
 export interface RunResult {
@@ -86,6 +89,7 @@ export function runScenarioSeed(scenarioInput: Scenario | ScenarioInput, recipe:
   const lowHz = f[0];
   const highHz = f[f.length - 1];
 
+  const linear = record.reference;
   const compare = (
     exactFrf: (fHz: Float64Array) => ComplexArray,
     modes: typeof record.reference.modes,
@@ -112,10 +116,15 @@ export function runScenarioSeed(scenarioInput: Scenario | ScenarioInput, recipe:
       insideMagnitudeBand: inside,
       insidePhaseBand: insidePhase,
     };
-    return { score, modes: modeList, lines };
+    return {
+      score,
+      modes: modeList,
+      lines,
+      atResonances: scoresAtFrequencies(score, modes.map((m) => m.naturalFrequencyHz)),
+      atAntiResonances: scoresAtFrequencies(score, linear.antiResonancesHz),
+    };
   };
 
-  const linear = record.reference;
   const tau = processed.exponentialTauS;
   let judged: Comparison;
   let plain: Comparison | undefined;

@@ -48,6 +48,9 @@ describe('runScenarioSeed on leakage-free periodic records', () => {
     expect(s.maxAbsPhaseDeg).toBeLessThan(1e-7);
     expect(s.maxComplexRelative).toBeLessThan(1e-10);
     expect(r.judged.modes[0].status).toBe('resolved');
+    expect(r.judged.atResonances.map((p) => p.lineHz)).toEqual([40]);
+    expect(Math.abs(r.judged.atResonances[0].magnitudeErrorDb)).toBeLessThan(1e-9);
+    expect(r.judged.atAntiResonances).toEqual([]); // an SDOF has none
   });
 
   it('a 2 ms response delay gives a phase error of −360·f·τ and no magnitude error', () => {
