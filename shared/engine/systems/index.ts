@@ -55,15 +55,20 @@ export function buildSystem(input: SystemSpec): LinearSystem {
   }
   const quantity = spec.quantity;
   const frf = (fHz: Float64Array) => receptanceTo(quantity, fHz, receptance(fHz));
+  let antiResonances: number[] | undefined;
   return {
     quantity,
     unit: FRF_UNITS[quantity],
     frf,
     modes,
-    antiResonancesHz: findAntiResonances(
-      frf,
-      modes.map((m) => m.naturalFrequencyHz),
-    ),
+    // Searched on first use only: simulations of many seeds never need it.
+    get antiResonancesHz(): number[] {
+      antiResonances ??= findAntiResonances(
+        frf,
+        modes.map((m) => m.naturalFrequencyHz),
+      );
+      return antiResonances;
+    },
   };
 }
 
