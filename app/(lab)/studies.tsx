@@ -1,5 +1,0 @@
-import { StudiesScreen } from '@/shared/ui/screens/studies/studies-screen';
-
-export default function StudiesRoute() {
-  return <StudiesScreen />;
-}

@@ -1,0 +1,160 @@
+/**
+ * Studies of the current lab: list, one study with its progress, its results, start and cancel,
+ * and live progress (server-sent events on the web, polling where EventSource is missing or the
+ * stream fails). Also the recipes and scenarios a study is started from, and their definitions
+ * (the per-scenario plots recompute one seed in the browser).
+ */
+import { keepPreviousData, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
+import {
+  recipeVersionSchema,
+  resourceListSchema,
+  scenarioVersionSchema,
+  startStudySchema,
+  studyEventSchema,
+  studyListSchema,
+  studyResultsSchema,
+  studySchema,
+  type StartStudyRequest,
+  type Study,
+  type StudyStatus,
+} from '@/shared/api/work';
+import { api } from './client';
+import { labPath } from './labs';
+
+export const studyKeys = {
+  all: ['studies'] as const,
+  lab: (labId: string) => [...studyKeys.all, labId] as const,
+  list: (labId: string, filter: { status?: StudyStatus; limit?: number } = {}) => [...studyKeys.lab(labId), 'list', filter] as const,
+  detail: (labId: string, id: string) => [...studyKeys.lab(labId), 'detail', id] as const,
+  results: (labId: string, id: string) => [...studyKeys.lab(labId), 'results', id] as const,
+  inputs: (labId: string, kind: 'recipes' | 'scenarios') => ['study-inputs', labId, kind] as const,
+  definition: (labId: string, kind: 'recipes' | 'scenarios', id: string, version: number) => ['study-inputs', labId, kind, id, version] as const,
+};
+
+export const isActive = (status: StudyStatus | undefined) => status === 'queued' || status === 'running';
+
+export function useStudies(labId: string, filter: { status?: StudyStatus; limit?: number } = {}) {
+  return useQuery({
+    queryKey: studyKeys.list(labId, filter),
+    queryFn: ({ signal }) => {
+      const q = new URLSearchParams({ limit: String(filter.limit ?? 50) });
+      if (filter.status) q.set('status', filter.status);
+      return api.get(labPath(labId, `/studies?${q}`), { schema: studyListSchema, signal });
+    },
+    enabled: labId !== '',
+    placeholderData: keepPreviousData,
+  });
+}
+
+export function useStudy(labId: string, id: string, options: { poll?: boolean } = {}) {
+  return useQuery({
+    queryKey: studyKeys.detail(labId, id),
+    queryFn: ({ signal }) => api.get(labPath(labId, `/studies/${encodeURIComponent(id)}`), { schema: studySchema, signal }),
+    enabled: labId !== '' && id !== '',
+    refetchInterval: (query) => (options.poll && isActive(query.state.data?.status) ? 1500 : false),
+  });
+}
+
+export function useStudyResults(labId: string, id: string, enabled = true) {
+  return useQuery({
+    queryKey: studyKeys.results(labId, id),
+    queryFn: ({ signal }) => api.get(labPath(labId, `/studies/${encodeURIComponent(id)}/results`), { schema: studyResultsSchema, signal }),
+    enabled: enabled && labId !== '' && id !== '',
+    staleTime: 5 * 60_000,
+  });
+}
+
+function afterStudyChange(client: QueryClient, labId: string, study: Study) {
+  client.setQueryData(studyKeys.detail(labId, study.id), study);
+  void client.invalidateQueries({ queryKey: [...studyKeys.lab(labId), 'list'] });
+}
+
+export function useStartStudy(labId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (request: StartStudyRequest) => api.post(labPath(labId, '/studies'), startStudySchema.parse(request), { schema: studySchema }),
+    onSuccess: (study) => afterStudyChange(client, labId, study),
+  });
+}
+
+export function useCancelStudy(labId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (id: string) => api.post(labPath(labId, `/studies/${encodeURIComponent(id)}/cancel`), undefined, { schema: studySchema }),
+    onSuccess: (study) => afterStudyChange(client, labId, study),
+  });
+}
+
+export type LiveMode = 'idle' | 'stream' | 'polling';
+
+/**
+ * Keeps a running study's progress fresh: an EventSource on /events writes each `progress` into
+ * the study's cached detail, and `end` refetches the study, its results and the lists. Without
+ * EventSource, or once the stream errs, it answers 'polling' and the caller polls (useStudy poll).
+ */
+export function useStudyLive(labId: string, id: string, status: StudyStatus | undefined): LiveMode {
+  const client = useQueryClient();
+  const [failed, setFailed] = useState(false);
+  const active = isActive(status);
+  const canStream = typeof EventSource !== 'undefined' && !failed;
+  useEffect(() => {
+    if (!active || !canStream || !labId || !id) return;
+    const source = new EventSource(labPath(labId, `/studies/${encodeURIComponent(id)}/events`), { withCredentials: true });
+    const onEvent = (raw: MessageEvent) => {
+      const parsed = studyEventSchema.safeParse(JSON.parse(String(raw.data)));
+      if (!parsed.success) return;
+      const event = parsed.data;
+      client.setQueryData<Study>(studyKeys.detail(labId, id), (old) => (old ? { ...old, status: event.progress.status, progress: event.progress } : old));
+      if (event.type === 'end') {
+        source.close();
+        void client.invalidateQueries({ queryKey: studyKeys.detail(labId, id) });
+        void client.invalidateQueries({ queryKey: studyKeys.results(labId, id) });
+        void client.invalidateQueries({ queryKey: [...studyKeys.lab(labId), 'list'] });
+      }
+    };
+    source.addEventListener('progress', onEvent as EventListener);
+    source.addEventListener('end', onEvent as EventListener);
+    source.onerror = () => {
+      source.close();
+      setFailed(true);
+    };
+    return () => source.close();
+  }, [active, canStream, client, id, labId]);
+  if (!active) return 'idle';
+  return canStream ? 'stream' : 'polling';
+}
+
+// ---- what a study is started from ------------------------------------------------------------
+
+export function useStudyInputs(labId: string, kind: 'recipes' | 'scenarios') {
+  return useQuery({
+    queryKey: studyKeys.inputs(labId, kind),
+    queryFn: ({ signal }) => api.get(labPath(labId, `/${kind}?limit=200&sort=name&order=asc`), { schema: resourceListSchema, signal }),
+    enabled: labId !== '',
+  });
+}
+
+export function useRecipeVersion(labId: string, id: string, version: number) {
+  return useQuery({
+    queryKey: studyKeys.definition(labId, 'recipes', id, version),
+    queryFn: ({ signal }) => api.get(labPath(labId, `/recipes/${encodeURIComponent(id)}/versions/${version}`), { schema: recipeVersionSchema, signal }),
+    enabled: labId !== '' && id !== '',
+    staleTime: Infinity,
+  });
+}
+
+export function useScenarioVersion(labId: string, id: string, version: number) {
+  return useQuery({
+    queryKey: studyKeys.definition(labId, 'scenarios', id, version),
+    queryFn: ({ signal }) => api.get(labPath(labId, `/scenarios/${encodeURIComponent(id)}/versions/${version}`), { schema: scenarioVersionSchema, signal }),
+    enabled: labId !== '' && id !== '',
+    staleTime: Infinity,
+  });
+}
+
+/** CSV exports of a study (served as attachments by the API). */
+export const studyCsvLinks = (labId: string, id: string) => ({
+  results: labPath(labId, `/studies/${encodeURIComponent(id)}/results.csv`),
+  criteria: labPath(labId, `/studies/${encodeURIComponent(id)}/criteria.csv`),
+});
