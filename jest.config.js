@@ -38,12 +38,18 @@ module.exports = {
       // The project has no babel.config.js (Metro uses babel-preset-expo by default), so the
       // preset's babel-jest transform is given the preset explicitly.
       transform: {
-        '\\.[jt]sx?$': [
+        '\\.m?[jt]sx?$': [
           'babel-jest',
           { presets: ['babel-preset-expo'], caller: { name: 'metro', bundler: 'metro', platform: 'web' } },
         ],
       },
       moduleNameMapper: alias,
+      // jest-expo's list, plus d3-scale/d3-shape and their d3 dependencies, which ship only ES modules.
+      transformIgnorePatterns: [
+        '/node_modules/(?!(.pnpm|react-native|@react-native|@react-native-community|expo|@expo|@expo-google-fonts|react-navigation|@react-navigation|@sentry/react-native|native-base|standard-navigation|d3-[a-z-]+|internmap))',
+        '/node_modules/react-native-reanimated/plugin/',
+        '/node_modules/@react-native/babel-preset/',
+      ],
     },
   ],
 };
