@@ -15,19 +15,25 @@ export interface NumericTable {
   rowCount: number;
 }
 
-/** Reads a CSV file with a header row; every cell must be a finite number. */
-export function readNumericCsv(path: string, what: string): NumericTable {
+/**
+ * Reads a CSV file with a header row. Every cell must be a finite number, unless
+ * `allowNonFinite` lets through the `NaN`, `Infinity` and `-Infinity` this module writes (an
+ * estimate has them where a spectrum is zero, e.g. at 0 Hz after mean removal).
+ */
+export function readNumericCsv(path: string, what: string, allowNonFinite = false): NumericTable {
   let text: string;
   try {
     text = readFileSync(path, 'utf8');
   } catch (error) {
     throw new CliInputError(`${what}: cannot read "${path}" (${(error as NodeJS.ErrnoException).code ?? 'error'})`);
   }
-  return parseNumericCsv(text, `${what} "${path}"`);
+  return parseNumericCsv(text, `${what} "${path}"`, allowNonFinite);
 }
 
+const NON_FINITE = new Set(['NaN', 'Infinity', '-Infinity']);
+
 /** Parses CSV text with a header row into numeric columns; `where` names the source in errors. */
-export function parseNumericCsv(text: string, where: string): NumericTable {
+export function parseNumericCsv(text: string, where: string, allowNonFinite = false): NumericTable {
   const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy' });
   const fatal = parsed.errors.find((e) => e.type !== 'Delimiter');
   if (fatal) throw new CliInputError(`${where}: CSV error on row ${(fatal.row ?? 0) + 1}: ${fatal.message}`);
@@ -51,7 +57,7 @@ export function parseNumericCsv(text: string, where: string): NumericTable {
     for (let c = 0; c < columns.length; c++) {
       const cell = row[c]!.trim();
       const value = cell === '' ? Number.NaN : Number(cell);
-      if (!Number.isFinite(value)) {
+      if (!Number.isFinite(value) && !(allowNonFinite && NON_FINITE.has(cell))) {
         throw new CliInputError(`${where}: row ${r + 2}, column "${columns[c]}": "${cell}" is not a finite number`);
       }
       data[columns[c]!]![r] = value;

@@ -31,7 +31,7 @@ export function exactOnLines(exactHz: Float64Array, exact: ComplexArray, lines: 
     const f = lines[k]!;
     if (f < exactHz[0]! - tolerance || f > exactHz[n - 1]! + tolerance) {
       throw new CliInputError(
-        `estimate line ${f} Hz lies outside the exact FRF's range ${exactHz[0]}–${exactHz[n - 1]} Hz`,
+        `estimate line ${f} Hz lies outside the exact FRF's range ${exactHz[0]}–${exactHz[n - 1]} Hz (narrow --band)`,
       );
     }
     while (j < n - 2 && exactHz[j + 1]! <= f + tolerance) j++;

@@ -77,7 +77,7 @@ function run(values: ParsedValues): number {
   checkOutputPath(outputPath, 'output');
   checkOutputPath(linesPath, 'lines');
 
-  const table = readNumericCsv(estimatePath, '--estimate');
+  const table = readNumericCsv(estimatePath, '--estimate', true);
   const where = `--estimate "${estimatePath}"`;
   const lines = requireColumn(table, 'frequency_hz', where);
   const names = estimateColumns(values, table.columns);
@@ -86,6 +86,15 @@ function run(values: ParsedValues): number {
     if (!(lines[k]! > lines[k - 1]!)) throw new CliInputError(`${where}: frequency_hz must increase (row ${k + 2})`);
   }
 
+  const band = bandHz
+    ? bandLineRange(lines, bandHz.lowHz, bandHz.highHz)
+    : bandLineRange(lines, Number.MIN_VALUE, Number.POSITIVE_INFINITY);
+  // Only the band's lines are scored, so the exact FRF need only cover those.
+  const bandLines = lines.slice(band.start, band.end);
+  const bandEstimate: ComplexArray = {
+    re: estimate.re.slice(band.start, band.end),
+    im: estimate.im.slice(band.start, band.end),
+  };
   let exact: ComplexArray;
   let interpolatedLines = 0;
   let fromScenario: ScenarioExact | undefined;
@@ -95,28 +104,30 @@ function run(values: ParsedValues): number {
     const onLines = exactOnLines(
       requireColumn(exactTable, 'frequency_hz', exactWhere),
       { re: requireColumn(exactTable, 'h_re', exactWhere), im: requireColumn(exactTable, 'h_im', exactWhere) },
-      lines,
+      bandLines,
     );
     exact = onLines.exact;
     interpolatedLines = onLines.interpolatedLines;
   } else {
-    fromScenario = scenarioExact(scenarioArg!, lines);
+    fromScenario = scenarioExact(scenarioArg!, bandLines);
     exact = fromScenario.exact;
   }
   const warnings: string[] = [];
   if (interpolatedLines > 0) {
     warnings.push(
-      `the exact FRF's lines differ from the estimate's: ${interpolatedLines} of ${lines.length} line(s) ` +
+      `the exact FRF's lines differ from the estimate's: ${interpolatedLines} of ${bandLines.length} line(s) ` +
         'interpolated linearly (near sharp resonances this misstates the errors; export the exact FRF ' +
         'on the same lines, e.g. simulate --block N)',
     );
   }
-  let band: { start: number; end: number };
-  if (bandHz) band = bandLineRange(lines, bandHz.lowHz, bandHz.highHz);
-  else band = bandLineRange(lines, Number.MIN_VALUE, Number.POSITIVE_INFINITY);
-
-  const score = scoreFrf({ frequenciesHz: lines, exact, estimate, band });
-  const modes = fromScenario ? fromScenario.modeErrors(estimate, band) : undefined;
+  for (let i = 0; i < bandLines.length; i++) {
+    if (!Number.isFinite(bandEstimate.re[i]!) || !Number.isFinite(bandEstimate.im[i]!)) {
+      throw new CliInputError(`${where}: ${names.re}/${names.im} is not a finite number at ${bandLines[i]} Hz (narrow --band)`);
+    }
+  }
+  const whole = { start: 0, end: bandLines.length };
+  const score = scoreFrf({ frequenciesHz: bandLines, exact, estimate: bandEstimate, band: whole });
+  const modes = fromScenario ? fromScenario.modeErrors(bandEstimate, whole) : undefined;
   for (const warning of warnings) process.stderr.write(`warning: ${warning}\n`);
 
   const files: { path: string; text: string }[] = [];
