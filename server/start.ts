@@ -13,6 +13,7 @@ import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer, type Mailer } from './mail/mailer';
 import { createPoolExecutor } from './jobs/pool';
 import { createStudyScheduler, type StudyScheduler } from './jobs/scheduler';
+import { startReviewReminders } from './services/review-reminders';
 import { seedDemoLab } from './seed/demo-lab';
 import { seedDemoWork } from './seed/demo-work';
 import { APP_VERSION } from './version';
@@ -48,6 +49,7 @@ export async function startServer(config: Config, logger = createLogger(config.l
   const { port } = server.address() as AddressInfo;
   const url = `http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port}`;
   studies.start(); // resumes any study left running when the server last stopped
+  const reminders = startReviewReminders({ db, logger, mailer, publicUrl: config.publicUrl }); // now, then daily
 
   let closing: Promise<void> | null = null;
   const close = () =>
@@ -57,6 +59,7 @@ export async function startServer(config: Config, logger = createLogger(config.l
         server.closeAllConnections();
       });
       await studies.close();
+      await reminders.stop();
       mailer.close();
       await fakeSmtp?.close();
       await db.destroy();

@@ -71,6 +71,13 @@ export const PERMISSIONS = {
   // review (decisions on others' work; the "not your own work" rule lives in the review service)
   'reviews.submit': BUILDERS,
   'reviews.decide': ['reviewer'],
+  // approval and evidence: everyone reads reviews, standards and reports; the lab admin retires
+  // a standard; analysts and the admin re-run a standard's evidence on today's engine
+  'reviews.read': ALL,
+  'standards.read': ALL,
+  'standards.retire': A,
+  'reports.read': ALL,
+  'reverify.run': ['admin', 'analyst'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof PERMISSIONS;

@@ -12,6 +12,9 @@ import { mailRoutes } from './mail';
 import { openApiRoutes } from './openapi';
 import { passwordResetRoutes } from './password-reset';
 import { peopleRoutes } from './people';
+import { reviewRoutes } from './reviews';
+import { standardRoutes } from './standards';
+import { reportRoutes } from './reports';
 import { systemRoutes } from './systems';
 import { scenarioRoutes } from './scenarios';
 import { recipeRoutes } from './recipes';
@@ -34,6 +37,9 @@ export function v1Routes(deps: AppDeps): Router {
   r.use(studyRoutes(deps));
   r.use(uploadRoutes(deps));
   r.use(exportRoutes(deps));
+  r.use(reviewRoutes(deps));
+  r.use(reportRoutes(deps));
+  r.use(standardRoutes(deps));
   r.use(openApiRoutes(deps));
   return r;
 }
