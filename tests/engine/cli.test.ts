@@ -302,7 +302,7 @@ describe('plumbline simulate → estimate → score', () => {
 });
 
 describe('plumbline verify', () => {
-  it('passes a leakage-free recipe on its scenario and fails it on a delayed channel (status 1)', async () => {
+  it('passes a leakage-free recipe on its scenario and fails it on random excitation with a delay (status 1)', async () => {
     const [pass, mixed] = await Promise.all([
       plumblineAsync('verify', '--recipe', 'arm-burst-random-rectangular', '--scenario', 'arm-burst-random', '--seeds', '2'),
       plumblineAsync('verify', '--recipe', 'arm-burst-random-rectangular', '--scenario', 'arm-burst-random', 'arm-channel-delay',
@@ -321,8 +321,9 @@ describe('plumbline verify', () => {
     // Seeds follow the documented rule: base 1, stride 1 000 000 per scenario.
     expect(study.scenarios[1]!.seeds).toEqual([1_000_001, 1_000_002]);
     const coherence = study.scenarios[1]!.judged.criteria.find((c) => c.id === 'min-coherence')!;
-    // A 12.5 ms delay against 1 s blocks: γ² ≈ (1 − τ/T)² = 0.975 at best (Bendat & Piersol),
-    // lower at the resonances, so the recipe's 0.95 floor fails somewhere in the band.
+    // That scenario is continuous random excitation: rectangular blocks leak the resonances into
+    // the anti-resonance, and the 12.5 ms delay costs a further (1 − τ/T)² (Bendat & Piersol), so
+    // the recipe's 0.95 coherence floor fails.
     expect(coherence.pass).toBe(false);
     expect(coherence.observed).toBeLessThan(0.95);
     expect(coherence.worstLineHz).toBeGreaterThanOrEqual(200);

@@ -71,6 +71,7 @@ function run(values: ParsedValues): number {
   if (exactPath === undefined && (values.df !== undefined || values.block !== undefined)) {
     throw new CliInputError('--df and --block set the exact FRF lines: give --exact FILE too');
   }
+  if (outputPath === '-' || exactPath === '-') throw new CliInputError('simulate writes files: give --output (and --exact) a file name, not "-"');
   checkOutputPath(outputPath, 'output');
   checkOutputPath(exactPath, 'exact');
   if (exactPath !== undefined && exactPath === outputPath) throw new CliInputError('--exact and --output must differ');
