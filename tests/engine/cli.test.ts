@@ -23,7 +23,11 @@ interface Run {
 }
 
 function plumbline(...args: string[]): Run {
-  const r = spawnSync(process.execPath, [BIN, ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
+  return plumblineIn(ROOT, ...args);
+}
+
+function plumblineIn(cwd: string, ...args: string[]): Run {
+  const r = spawnSync(process.execPath, [BIN, ...args], { cwd, encoding: 'utf8', timeout: 60_000 });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
@@ -97,6 +101,12 @@ describe('plumbline --help', () => {
     for (const option of ['--input', '--fs', '--block', '--window', '--overlap', '--detrend', '--averages', '--scaling', '--estimator', '--format', '--output', 'Hz']) {
       expect(estimate.stdout).toContain(option);
     }
+  });
+
+  it('runs from any working folder (the import alias is resolved from the repository)', () => {
+    const r = plumblineIn(dir, 'windows', '--block', '64', '--format', 'json');
+    expect(r.status).toBe(0);
+    expect((JSON.parse(r.stdout) as { windows: unknown[] }).windows).toHaveLength(6);
   });
 
   it('rejects an unknown command with status 2', () => {
