@@ -86,7 +86,7 @@ describe('frame: uncorrelated noise on one channel or both', () => {
       const { processed, exact } = runOnce(scenario, seed, FRAME_SURVEY);
       const clean = processOnce(simulateScenario(withoutErrors(scenario), seed), FRAME_SURVEY);
       // Output noise of in-band power P_y·10^(−SNR/10), white: Gnn = that / B. Input flat:
-      // Gxx = P_x / B. H2 = H·(1 + Gnn/Gvv), Gvv = |H|²·Gxx (Bendat & Piersol, Random Data, ch. 9).
+      // Gxx = P_x / B. H2 = H·(1 + Gnn/Gvv), Gvv = |H|²·Gxx (Bendat & Piersol, Random Data, 4th ed., 2010).
       const gnn = (meanSquare(clean.record.output) * 10 ** (-20 / 10)) / band;
       const gxx = meanSquare(clean.record.input) / band;
       antiResonancesHz.forEach((hz, a) => {
@@ -112,7 +112,7 @@ describe('frame: uncorrelated noise on one channel or both', () => {
 
   it('input noise: H1 reads low by 1/(1 + N/S) at the resonances, H2 holds', () => {
     // Input SNR 10 dB, flat force and white noise: E[H1] = H·Guu/(Guu + Gmm) = H/(1 + 10^(−1))
-    // at every line (Bendat & Piersol, Random Data, ch. 9).
+    // at every line (Bendat & Piersol, Random Data, 4th ed., 2010).
     const { h1, h2 } = noisyAgainstControl('frame-input-noise', resonancesHz);
     expect(Math.abs(mean(h1) - 1 / 1.1)).toBeLessThan(0.02);
     expect(Math.abs(mean(h2) - 1)).toBeLessThan(0.04);
@@ -146,7 +146,7 @@ describe('frame: uncorrelated noise on one channel or both', () => {
         hvAtAnti.push(magnitude(hv, k) / magnitude(reference.estimate.h1, k));
       }
     }
-    // Input SNR 15 dB: H1 low by 1/(1 + 10^(−1.5)) = 0.969 (Bendat & Piersol, ch. 9).
+    // Input SNR 15 dB: H1 low by 1/(1 + 10^(−1.5)) = 0.969 (Bendat & Piersol, Random Data).
     expect(Math.abs(mean(h1AtResonances) - 1 / (1 + 10 ** -1.5))).toBeLessThan(0.02);
     expect(mean(h2AtAnti)).toBeGreaterThan(1.3);
     // Hv weighted by the true noise ratio is the total-least-squares estimate, consistent when
@@ -225,7 +225,7 @@ describe('arm: leakage-free excitations', () => {
 describe('arm: delay between the channels', () => {
   it('coherence falls by (1 − τ/T)² and |H1| by (1 − τ/T)', () => {
     // Rectangular window, T = 512/4096 = 0.125 s, τ = 12.5 ms: τ/T = 0.1 (Bendat & Piersol,
-    // Random Data, ch. 9, from memory; engine.md). Ratios to the control remove the leakage of
+    // Random Data, from memory; engine.md). Ratios to the control remove the leakage of
     // the short block, which is there with or without the delay.
     const scenario = loadScenario('arm-channel-delay');
     const control = withoutErrors(scenario);
@@ -284,7 +284,7 @@ describe('frame: resolution against the half-power bandwidth', () => {
     expect(coarse).toBeLessThan(middle);
     expect(middle).toBeLessThan(fine);
     expect(fine).toBeLessThan(0);
-    // Asymptotic law: bias ∝ (Δf/B_r)² (Bendat & Piersol, ch. 8, from memory), so halving Δf
+    // Asymptotic law: bias ∝ (Δf/B_r)² (Bendat & Piersol, Random Data, from memory), so halving Δf
     // divides it by about 4 once B_r/Δf ≥ 4; higher-order terms and the Monte Carlo scatter
     // (±0.03 dB per seed at Δf = B_r/8) widen the band.
     expect(middle / fine).toBeGreaterThan(3);
@@ -355,7 +355,7 @@ describe('arm: ADC quantisation and overload', () => {
       const peak = (x: Float64Array) => x.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
       // Step q = 2·(1.25·peak)/2^8; white quantisation noise of power q²/12, one-sided PSD
       // 2(q²/12)/fs (B. Widrow & I. Kollár, Quantization Noise, 2008; Parseval). Coherence with
-      // noise on both channels: 1/((1 + Gmm/Guu)(1 + Gnn/Gvv)) (Bendat & Piersol, ch. 9).
+      // noise on both channels: 1/((1 + Gmm/Guu)(1 + Gnn/Gvv)) (Bendat & Piersol, Random Data).
       const psd = (x: Float64Array) => (2 * (((2 * 1.25 * peak(x)) / 256) ** 2 / 12)) / clean.sampleRateHz;
       const gmm = psd(clean.input);
       const gnn = psd(clean.output);
