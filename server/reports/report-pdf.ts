@@ -36,11 +36,15 @@ function para(doc: Doc, text: string, font: 'text' | 'mono' | 'bold' = 'text', s
 }
 
 function field(doc: Doc, name: string, value: string, mono = false) {
-  space(doc, 14);
+  const valueWidth = doc.page.width - 2 * MARGIN - 135;
+  const nameHeight = doc.font('bold').fontSize(8.5).heightOfString(name, { width: 130 });
+  const valueHeight = doc.font(mono ? 'mono' : 'text').fontSize(mono ? 8 : 8.5).heightOfString(value, { width: valueWidth });
+  space(doc, Math.max(nameHeight, valueHeight) + 2);
   const y = doc.y;
   doc.font('bold').fontSize(8.5).fillColor(INK).text(name, MARGIN, y, { width: 130 });
-  doc.font(mono ? 'mono' : 'text').fontSize(mono ? 8 : 8.5).text(value, MARGIN + 135, y, { width: doc.page.width - 2 * MARGIN - 135 });
-  doc.y = Math.max(doc.y, y + 11);
+  doc.font(mono ? 'mono' : 'text').fontSize(mono ? 8 : 8.5).text(value, MARGIN + 135, y, { width: valueWidth });
+  doc.y = y + Math.max(nameHeight, valueHeight, 11) + 2;
+  doc.x = MARGIN;
 }
 
 function criteriaTable(doc: Doc, rows: ReportContent['studies'][number]['scenarios'][number]['criteria']) {
@@ -166,7 +170,8 @@ export function renderReportPdf(record: ReportRecord, content: ReportContent): P
   heading(doc, `The recipe: "${content.recipe.name}" version ${content.recipe.version} (${content.recipe.state.replace('_', ' ')})`);
   field(doc, 'recipe id', content.recipe.id, true);
   field(doc, 'author of this version', content.recipe.author.displayName);
-  heading(doc, 'Processing settings and acceptance criteria');
+  field(doc, 'processing', content.processing.join('\n'));
+  heading(doc, 'Acceptance criteria');
   for (const c of content.acceptanceCriteria) field(doc, c.label, c.limit);
 
   for (const study of content.studies) studySection(doc, study, estimator);

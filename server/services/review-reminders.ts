@@ -90,11 +90,14 @@ export async function sendReviewReminders(deps: ReminderDeps, now = Date.now()):
   return { reminded };
 }
 
-/** Runs the reminders now and then every day; `stop` clears the timer and waits for a pass in flight. */
-export function startReviewReminders(deps: ReminderDeps, everyMs = DAY_MS): { stop(): Promise<void> } {
+/**
+ * Runs the reminders now and then every `everyMs` (a day); `stop` clears the timer and waits for a
+ * pass in flight. `clock` gives "now" (tests pass a fake one).
+ */
+export function startReviewReminders(deps: ReminderDeps, everyMs = DAY_MS, clock: () => number = Date.now): { stop(): Promise<void> } {
   let running: Promise<unknown> = Promise.resolve();
   const pass = () => {
-    running = running.then(() => sendReviewReminders(deps)).catch((err) => deps.logger.warn({ err }, 'review reminders failed'));
+    running = running.then(() => sendReviewReminders(deps, clock())).catch((err) => deps.logger.warn({ err }, 'review reminders failed'));
   };
   pass();
   const timer = setInterval(pass, everyMs);

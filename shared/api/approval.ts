@@ -334,6 +334,8 @@ export const reportContentSchema = z.object({
       ),
     }),
   ),
+  /** The recipe's processing settings in words. */
+  processing: z.array(z.string()),
   acceptanceCriteria: z.array(z.object({ label: z.string(), limit: z.string() })),
   justification: z.string().nullable(),
   signature: signatureSchema.nullable(),
