@@ -1,5 +1,5 @@
-import { BenchScreen } from '@/shared/ui/screens/bench/bench-screen';
+import { HomeScreen } from '@/shared/ui/screens/home/home-screen';
 
 export default function BenchRoute() {
-  return <BenchScreen />;
+  return <HomeScreen />;
 }

@@ -1,5 +1,5 @@
-import { LabScreen } from '@/shared/ui/screens/lab/lab-screen';
+import { AdminScreen } from '@/shared/ui/screens/admin/admin-screen';
 
 export default function LabRoute() {
-  return <LabScreen />;
+  return <AdminScreen />;
 }

@@ -1,0 +1,5 @@
+import { AuditScreen } from '@/shared/ui/screens/audit/audit-screen';
+
+export default function AuditRoute() {
+  return <AuditScreen />;
+}

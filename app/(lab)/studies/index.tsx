@@ -1,0 +1,5 @@
+import { StudiesScreen } from '@/shared/ui/screens/studies/studies-screen';
+
+export default function StudiesRoute() {
+  return <StudiesScreen />;
+}

@@ -1,0 +1,82 @@
+/** The validation report as a printable page (print CSS on the web), with the PDF beside it. */
+import { StyleSheet, View } from 'react-native';
+import type { ReportContent } from '@/shared/api/approval';
+import { reportPaths, useReport, type ReportKind } from '@/shared/ui/api/reports';
+import { AppText, Button, Caution, StatusBadge } from '@/shared/ui/components';
+import { useLabId } from '@/shared/ui/lab-context';
+import { space } from '@/shared/ui/theme';
+import { FactRow, formatDateTime } from '../kit/figure';
+import { Panel, TextLink } from '../kit/panel';
+import { QueryView } from '../kit/query-view';
+import { Column } from '../kit/two-pane';
+import { ScopeFacts } from '../reviews/scope-facts';
+import { printPage, usePrintStyle } from './print-style';
+import { ReportScenario } from './report-scenario';
+
+export function ReportScreen({ kind, targetId }: { kind: ReportKind; targetId: string }) {
+  usePrintStyle();
+  const labId = useLabId();
+  const report = useReport(labId, kind, targetId);
+  const paths = reportPaths(labId, kind, targetId);
+  return (
+    <Column title="Validation report">
+      <View style={styles.tools} {...({ dataSet: { print: 'hide' } } as object)}>
+        <Button label="Print" variant="secondary" compact onPress={printPage} />
+        <TextLink href={paths.pdf} external testID="report-pdf">Download the PDF</TextLink>
+        <TextLink href={kind === 'study' ? `/studies/${targetId}` : `/standards/${targetId}`}>{kind === 'study' ? 'Back to the study' : 'Back to the standard'}</TextLink>
+      </View>
+      <QueryView query={report} loadingLabel="Loading the report…">{(r) => <ReportBody content={r.content} sha256={r.report.sha256} createdAt={r.report.createdAt} />}</QueryView>
+    </Column>
+  );
+}
+
+function ReportBody({ content: c, sha256, createdAt }: { content: ReportContent; sha256: string; createdAt: number }) {
+  return (
+    <View style={styles.sheet} testID="report-sheet" {...({ dataSet: { print: 'sheet' } } as object)}>
+      <View style={styles.head}>
+        <AppText variant="label" tone="muted">{`${c.lab.name} · validation report`}</AppText>
+        <AppText variant="title" role="heading" aria-level={1} testID="screen-title">{c.title}</AppText>
+        <AppText variant="label" tone="muted" selectable>{`Report sha256 ${sha256} · issued ${formatDateTime(createdAt)} · engine ${c.engineVersion}`}</AppText>
+      </View>
+      {c.purpose ? <AppText variant="body">{c.purpose}</AppText> : null}
+      {c.scope ? <Panel title="Scope"><ScopeFacts scope={c.scope} /></Panel> : null}
+      <Panel title="Recipe">
+        <FactRow label="Recipe" text={`${c.recipe.name} v${c.recipe.version}`} />
+        <FactRow label="Author" text={c.recipe.author.displayName} />
+        <FactRow label="State" text={c.recipe.state.replace('_', ' ')} />
+        {c.acceptanceCriteria.map((a) => <FactRow key={a.label} label={a.label} text={a.limit} />)}
+      </Panel>
+      {c.studies.map((study) => (
+        <Panel key={study.id} title={study.name} aside={<StatusBadge tone={study.pass ? 'pass' : study.pass === false ? 'fail' : 'neutral'} label={study.pass ? 'PASS' : study.pass === false ? 'FAIL' : study.status} />}>
+          <AppText variant="small" tone="muted">{`Run by ${study.runBy.displayName} · ${formatDateTime(study.startedAt)} – ${formatDateTime(study.finishedAt)} · ${study.seedsPerScenario} seeds per scenario, base seed ${study.baseSeed} · ${study.seedRule} · engine ${study.engineVersion}`}</AppText>
+          {study.scenarios.map((s) => <ReportScenario key={s.id} scenario={s} />)}
+        </Panel>
+      ))}
+      {c.justification ? <Panel title="Justification"><AppText variant="body">{c.justification}</AppText></Panel> : null}
+      {c.signature ? (
+        <Panel title="Signature">
+          <FactRow label="Reviewer" text={c.signature.reviewer.displayName} />
+          <FactRow label="Signed" text={formatDateTime(c.signature.signedAt)} />
+          <AppText variant="body">{`Meaning: ${c.signature.meaning}`}</AppText>
+          <AppText variant="label" tone="muted" selectable>{`evidence sha256 ${c.signature.evidenceSha256}`}</AppText>
+          <AppText variant="label" tone="muted" selectable>{`signature sha256 ${c.signature.signatureSha256}`}</AppText>
+        </Panel>
+      ) : null}
+      {c.evidenceCheck ? (
+        <Panel title="Evidence check" aside={<StatusBadge tone={c.evidenceCheck.matchesSignature ? 'pass' : 'fail'} label={c.evidenceCheck.matchesSignature ? 'Matches the signature' : 'Does not match'} />}>
+          <AppText variant="label" tone="muted" selectable>{`recomputed sha256 ${c.evidenceCheck.recomputedSha256}`}</AppText>
+        </Panel>
+      ) : null}
+      <Panel title="Reproducibility"><AppText variant="body">{c.reproducibility}</AppText></Panel>
+      <View style={styles.cautions}>{c.cautions.map((text) => <Caution key={text}>{text}</Caution>)}</View>
+      {c.lab.footer ? <AppText variant="small" tone="muted">{c.lab.footer}</AppText> : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  tools: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.lg },
+  sheet: { gap: space.lg },
+  head: { gap: space.sm },
+  cautions: { gap: space.sm },
+});
