@@ -31,6 +31,7 @@ import { scopeCoverage } from '../reports/scope-coverage';
 import { alreadyDecided, blockedMessages, independenceRefusals, staleVersion, submissionView } from '../reports/submission-view';
 import { recordAudit } from './audit';
 import { reviewMail } from './review-reminders';
+import { AttemptLimiter, MAX_FAILURES_PER_ACCOUNT } from './sign-in';
 import { scenarioOf } from './scenario-definition';
 import type { StoredStudySummary } from './study-results';
 
@@ -41,6 +42,8 @@ export interface ReviewDeps {
 }
 type Viewer = { id: string; role: Role };
 const MIN_JUSTIFICATION = 20;
+/** Wrong signature passwords per reviewer in 15 minutes before signing is paused (as for sign-in). */
+const signatureAttempts = new AttemptLimiter();
 const MONTH_MS = (365.2425 / 12) * 86_400_000;
 
 async function studyList(db: Db, labId: string, ids: string[]): Promise<Submission['studies']> {
@@ -188,8 +191,16 @@ export async function decide(deps: ReviewDeps, labId: string, viewer: Viewer, su
   if (sub.recipe_state !== 'in_review') return no(new AppError(409, 'not_in_review', `Version ${sub.recipe_version} is ${sub.recipe_state}, not in review.`));
   const reviewer = await findUserById(db, viewer.id);
   if (!reviewer) throw notFound('Your account');
-  if (body.decision === 'approved' && !(reviewer.password_hash && (await verifyPassword(reviewer.password_hash, body.password)))) {
-    return no(new AppError(403, 'signature_refused', 'The password is not correct: the approval was not signed.'), 'reviews.signature-refused');
+  if (body.decision === 'approved') {
+    const key = `signature:${reviewer.id}`;
+    if (signatureAttempts.blocked(key)) {
+      return no(new AppError(429, 'too_many_attempts', `${MAX_FAILURES_PER_ACCOUNT} wrong passwords in 15 minutes: signing is paused; try again later.`), 'reviews.signature-refused');
+    }
+    if (!(reviewer.password_hash && (await verifyPassword(reviewer.password_hash, body.password)))) {
+      signatureAttempts.fail(key);
+      return no(new AppError(403, 'signature_refused', 'The password is not correct: the approval was not signed.'), 'reviews.signature-refused');
+    }
+    signatureAttempts.clear(key);
   }
 
   const studyIds = await store.evidenceStudyIds(db, submissionId);

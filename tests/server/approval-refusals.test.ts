@@ -199,15 +199,29 @@ describe('submissions that are refused', () => {
       expect(ok.body.failingCriteria).toHaveLength(4);
       expect(ok.body.failingCriteria[0]).toMatchObject({ studyId: evidence, label: 'Magnitude bias |mean error|', limit: 0.01, unit: 'dB' });
       expect(ok.body.justification).toBe('The 0.01 dB limit is a stress setting; the programme tolerance is 1 dB.');
+      sub.tight = ok.body.id;
     });
   });
+});
+
+describe('repeated wrong signature passwords', () => {
+  it('pause signing after 8 in 15 minutes (the sign-in limit), even with the right password then', async () => {
+    for (let i = 0; i < 8; i++) await approve(as.reviewer, sub.tight!, { password: `guess-${i}` }).expect(403);
+    const res = await approve(as.reviewer, sub.tight!).expect(429);
+    expect(res.body.error).toMatchObject({ code: 'too_many_attempts', message: '8 wrong passwords in 15 minutes: signing is paused; try again later.' });
+    expect(await t.db('review_decisions').where({ submission_id: sub.tight })).toEqual([]);
+  }, 30_000);
 });
 
 describe('the audit trail after all refusals', () => {
   it('holds one event per refusal and still verifies', async () => {
     const refusals = (await auditSince(t, auditStart)).filter((e) => /-refused$/.test(e.action)).map((e) => JSON.parse(e.after_json!).refused);
     expect(refusals.sort()).toEqual(
-      ['role', 'role', 'role', 'self_approval', 'self_approval', 'signature_refused', 'stale_version', 'already_decided', 'author_cannot_decide', 'editor_cannot_decide', 'stale_version'].sort(),
+      [
+        ...['role', 'role', 'role', 'self_approval', 'self_approval', 'signature_refused', 'stale_version', 'already_decided', 'author_cannot_decide', 'editor_cannot_decide', 'stale_version'],
+        ...Array(8).fill('signature_refused'),
+        'too_many_attempts',
+      ].sort(),
     );
     expect((await as.auditor.get(`/api/v1/labs/${t.labId}/audit/verify`).expect(200)).body.ok).toBe(true);
   });
