@@ -32,7 +32,8 @@ export async function startServer(config: Config, logger = createLogger(config.l
   const db = createDb(config.databaseFile);
   await migrate(db);
   if (config.demo.seed && (await seedDemoLab(db, config.demo.password))) logger.info('demo lab seeded');
-  if (config.demo.seed && (await seedDemoWork(db))) logger.info('demo systems, scenarios, recipes and study seeded');
+  // The demo study is computed here (about a second); test servers leave it out (seed/demo-work.ts).
+  if (config.demo.seed && (await seedDemoWork(db, { withStudy: config.env !== 'test' }))) logger.info('demo work seeded');
 
   const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.fakePort);
   const smtp = config.mail.smtp ?? { host: '127.0.0.1', port: fakeSmtp!.port, secure: false };
