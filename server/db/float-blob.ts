@@ -13,6 +13,7 @@
 
 /** The bytes of a Float64Array, little-endian. */
 export function float64ToBlob(values: Float64Array): Buffer {
+  if (LITTLE_ENDIAN) return Buffer.from(values.buffer.slice(values.byteOffset, values.byteOffset + values.byteLength));
   const out = Buffer.alloc(values.length * 8);
   for (let i = 0; i < values.length; i++) out.writeDoubleLE(values[i], i * 8);
   return out;
@@ -20,14 +21,22 @@ export function float64ToBlob(values: Float64Array): Buffer {
 
 /** A Float64Array from float64ToBlob's bytes. */
 export function blobToFloat64(blob: Buffer | Uint8Array): Float64Array {
-  const buf = Buffer.isBuffer(blob) ? blob : Buffer.from(blob);
+  const buf = Buffer.isBuffer(blob) ? blob : Buffer.from(blob.buffer, blob.byteOffset, blob.byteLength);
   if (buf.length % 8 !== 0) throw new Error(`Float64 blob of ${buf.length} bytes is not a multiple of 8`);
-  const out = new Float64Array(buf.length / 8);
-  for (let i = 0; i < out.length; i++) out[i] = buf.readDoubleLE(i * 8);
-  return out;
+  return readDoubles(buf, 0, buf.length / 8);
 }
 
 const pad8 = (n: number) => (n + 7) & ~7;
+
+const LITTLE_ENDIAN = new Uint8Array(Float64Array.of(1).buffer)[7] === 0x3f;
+
+/** `length` doubles at byte `at` of buf (copied, so the result is aligned and owns its memory). */
+function readDoubles(buf: Buffer, at: number, length: number): Float64Array {
+  if (LITTLE_ENDIAN) return new Float64Array(buf.buffer.slice(buf.byteOffset + at, buf.byteOffset + at + length * 8));
+  const out = new Float64Array(length);
+  for (let i = 0; i < length; i++) out[i] = buf.readDoubleLE(at + i * 8);
+  return out;
+}
 
 type Packed = Float64Array | Uint8Array;
 
@@ -80,7 +89,7 @@ export function packValue(value: unknown): Buffer {
   header.copy(out, 4);
   let at = start;
   for (const a of arrays) {
-    if (a instanceof Float64Array) for (let i = 0; i < a.length; i++) out.writeDoubleLE(a[i], at + i * 8);
+    if (a instanceof Float64Array && !LITTLE_ENDIAN) for (let i = 0; i < a.length; i++) out.writeDoubleLE(a[i], at + i * 8);
     else Buffer.from(a.buffer, a.byteOffset, a.byteLength).copy(out, at);
     at += pad8(a.byteLength);
   }
@@ -99,9 +108,7 @@ export function unpackValue<T = unknown>(blob: Buffer | Uint8Array): T {
   let at = pad8(4 + headerLength);
   for (const h of header.arrays) {
     if (h.type === 'f64') {
-      const a = new Float64Array(h.length);
-      for (let i = 0; i < h.length; i++) a[i] = buf.readDoubleLE(at + i * 8);
-      arrays.push(a);
+      arrays.push(readDoubles(buf, at, h.length));
       at += pad8(h.length * 8);
     } else {
       arrays.push(Uint8Array.from(buf.subarray(at, at + h.length)));

@@ -4,6 +4,7 @@
  * DATA_DIR/uploads/incoming under a generated name, with a size limit; the service moves it into
  * place only when everything checked out.
  */
+import fs from 'node:fs';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import { Router } from 'express';
 import multer from 'multer';
@@ -12,10 +13,9 @@ import { uploadListQuerySchema, uploadListSchema, uploadResultSchema, uploadSche
 import type { AppDeps } from '../app';
 import { labRoute } from '../auth/permissions';
 import { AppError } from '../errors';
-import { generatedName, incomingDir } from '../services/upload-files';
+import { generatedName, incomingDir, sweepIncoming } from '../services/upload-files';
 import { getUpload, getUploadResult, listLabUploads, MAX_UPLOAD_BYTES, storeUpload } from '../services/uploads';
 import { parseBody } from './parse';
-import fs from 'node:fs';
 
 const idParam = z.object({ id: z.string() });
 
@@ -59,6 +59,7 @@ export function uploadRoutes(deps: AppDeps): Router {
   const r = Router();
   const base = '/labs/:labId/uploads';
   const dataDir = deps.config.dataDir;
+  sweepIncoming(dataDir); // files left half-received by a process that stopped mid-upload
   labRoute(r, deps.db, { method: 'get', path: base, action: 'uploads.read', summary: 'List the uploads of a lab', query: uploadListQuerySchema, response: uploadListSchema }, async (req, res) => {
     res.json(await listLabUploads(deps.db, req.lab!.id, parseBody(uploadListQuerySchema, req.query)));
   });
