@@ -1,0 +1,124 @@
+/**
+ * The system editor: name and description, the kind (SDOF, modes, or masses with springs and
+ * dampers) and its fields, the FRF quantity; the exact FRF and mode facts update live; saving
+ * makes version 1 or a new version; the version history shows what changed.
+ */
+import { useRouter } from 'expo-router';
+import { useRef, useState } from 'react';
+import { FormProvider, useForm, useWatch } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { parseSystemSpec } from '@/shared/engine/systems';
+import type { SystemSpec } from '@/shared/engine/systems/schema';
+import { systemsApi, type SystemRecord } from '@/shared/ui/api/systems';
+import { ChoiceChips } from '@/shared/ui/screens/kit/choice-field';
+import { Panel } from '@/shared/ui/screens/kit/panel';
+import { QueryView } from '@/shared/ui/screens/kit/query-view';
+import { space } from '@/shared/ui/theme';
+import { EditorHead } from './editor-head';
+import { engineCheckedResolver } from './form-rules';
+import { ModalFields } from './modal-fields';
+import { PhysicalFields } from './physical-fields';
+import { SaveBar } from './save-bar';
+import { SdofFields } from './sdof-fields';
+import { kindOptions, quantityOptions, startingDefinition, systemFormSchema, type SystemFormValues, type SystemKind } from './system-form-values';
+import { SystemLive } from './system-live';
+import { TextInputField } from './text-input-field';
+import { VersionHistory } from './version-history';
+
+interface EditorProps {
+  labId: string;
+  id: string;
+  canWrite: boolean;
+}
+
+export function SystemEditor({ labId, id, canWrite }: EditorProps) {
+  const isNew = id === 'new';
+  const latest = systemsApi.useLatest(labId, isNew ? '' : id);
+  if (isNew) return <SystemForm labId={labId} record={null} canWrite={canWrite} />;
+  return (
+    <QueryView query={latest} loadingLabel="Loading the system…">
+      {(record) => <SystemForm key={`${record.id}`} labId={labId} record={record} canWrite={canWrite} />}
+    </QueryView>
+  );
+}
+
+const resolver = engineCheckedResolver(systemFormSchema, (d) => parseSystemSpec(d), 'system');
+
+function valuesOf(record: SystemRecord | null): SystemFormValues {
+  if (!record) return { name: '', description: '', note: '', definition: startingDefinition('sdof') };
+  return { name: record.name, description: record.description, note: '', definition: record.definition };
+}
+
+function SystemForm({ labId, record, canWrite }: { labId: string; record: SystemRecord | null; canWrite: boolean }) {
+  const router = useRouter();
+  const form = useForm<SystemFormValues>({ resolver, defaultValues: valuesOf(record) });
+  const { control, getValues, setValue, handleSubmit, reset } = form;
+  const create = systemsApi.useCreate(labId);
+  const update = systemsApi.useUpdate(labId, record?.id ?? '');
+  const [savedVersion, setSavedVersion] = useState<number | null>(null);
+  const kind = useWatch({ control, name: 'definition.kind' }) as SystemKind;
+  const quantity = useWatch({ control, name: 'definition.quantity' });
+  // Switching kind keeps what was typed for the other kinds, so switching back restores it.
+  const stash = useRef<Partial<Record<SystemKind, SystemSpec>>>({});
+  const versions = systemsApi.useVersions(labId, record?.id ?? '');
+  const useVersion = (v: number | null) => systemsApi.useVersion(labId, record?.id ?? '', v);
+
+  const switchKind = (next: SystemKind) => {
+    if (next === kind) return;
+    const current = getValues('definition') as SystemSpec;
+    stash.current[kind] = current;
+    const restored = stash.current[next];
+    setValue('definition', restored ? { ...restored, quantity: current.quantity } : startingDefinition(next, current.quantity), { shouldDirty: true });
+  };
+  const onSave = handleSubmit((values) => {
+    const body = { name: values.name, description: values.description ?? '', note: values.note ?? '', definition: values.definition as SystemSpec };
+    const done = (saved: SystemRecord) => {
+      setSavedVersion(saved.version.version);
+      reset({ ...valuesOf(saved), note: '' });
+      if (!record) router.replace(`/systems/${saved.id}` as never);
+    };
+    if (record) update.mutate({ ...body, baseVersion: record.latestVersion }, { onSuccess: done });
+    else create.mutate(body, { onSuccess: done });
+  });
+  const mutation = record ? update : create;
+  const title = record ? record.name : 'New system';
+  return (
+    <FormProvider {...form}>
+      <View style={styles.editor} testID="system-editor">
+        <EditorHead title={title} eyebrow={record ? `System · version ${record.latestVersion}` : 'System · not saved yet'} />
+        <Panel title="Definition">
+          <TextInputField control={control} name="name" label="Name" placeholder="e.g. Drone motor arm, first bending" />
+          <TextInputField control={control} name="description" label="Description" multiline />
+          <ChoiceChips label="Model" options={kindOptions} value={kind} onChange={switchKind} />
+          <ChoiceChips
+            label="Output quantity"
+            options={quantityOptions}
+            value={quantity}
+            onChange={(q) => setValue('definition.quantity', q, { shouldDirty: true })}
+          />
+          {kind === 'sdof' ? <SdofFields /> : kind === 'modal' ? <ModalFields /> : <PhysicalFields />}
+        </Panel>
+        <SystemLive />
+        <SaveBar
+          isNew={!record}
+          canWrite={canWrite}
+          busy={mutation.isPending}
+          error={mutation.error}
+          savedVersion={savedVersion}
+          noun="system"
+          onSave={() => void onSave()}
+          noteField={<TextInputField control={control} name="note" label="What this version changes" placeholder="e.g. damping from the latest tap test" />}
+        />
+        {record ? (
+          <VersionHistory
+            versions={versions}
+            useVersion={useVersion}
+            onLoad={(_, definition) => setValue('definition', definition as SystemSpec, { shouldDirty: true })}
+          />
+        ) : null}
+      </View>
+    </FormProvider>
+  );
+}
+
+const styles = StyleSheet.create({ editor: { gap: space.xl } });

@@ -1,0 +1,160 @@
+/**
+ * Systems: list view states, the editor's field errors from the server's schemas, the live facts
+ * computed by the engine in the browser, and saving through the API. Expected mode facts are the
+ * textbook SDOF results f_d = f_n·sqrt(1 − ζ²) and half-power bandwidth 2ζf_n (S. S. Rao,
+ * Mechanical Vibrations).
+ */
+import { fireEvent, screen, within } from '@testing-library/dom';
+import { act } from 'react';
+import { renderApp, setWindowWidth } from './support/app';
+import { waitMs } from './support/dom';
+import { demoMe, installFakeApi, signedInAs } from './support/fake-api';
+import { press, typeInto } from './support/form';
+
+jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
+jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
+
+const lab = '/api/v1/labs/lab-harbor-ridge';
+const listPath = `${lab}/systems?limit=20&offset=0&sort=updatedAt&order=desc`;
+const person = { id: 'user-analyst', displayName: 'Mira Okafor' };
+const summary = {
+  id: 'sys-arm',
+  labId: 'lab-harbor-ridge',
+  name: 'Drone motor arm',
+  description: 'First bending mode near 340 Hz',
+  latestVersion: 2,
+  createdBy: person,
+  updatedBy: person,
+  createdAt: 1_764_000_000_000,
+  updatedAt: 1_764_600_000_000,
+};
+const armSpec = { kind: 'sdof', quantity: 'receptance', naturalFrequencyHz: 340, dampingRatio: 0.008, stiffnessNPerM: 250000 };
+const record = (version: number, definition: unknown) => ({
+  ...summary,
+  latestVersion: version,
+  version: { version, name: summary.name, note: version === 1 ? 'first' : 'damping from the tap test', author: person, createdAt: summary.updatedAt },
+  definition,
+});
+
+beforeEach(() => setWindowWidth(390));
+
+describe('systems list', () => {
+  test('lists the lab systems with their version', async () => {
+    installFakeApi({
+      'GET /api/v1/auth/session': signedInAs(demoMe),
+      [`GET ${listPath}`]: { status: 200, body: { items: [summary], total: 1, limit: 20, offset: 0 } },
+    });
+    await renderApp('/systems');
+    const list = screen.getByRole('list', { name: 'Systems' });
+    expect(within(list).getByText('Drone motor arm')).toBeTruthy();
+    expect(within(list).getByText(/^v2 · /)).toBeTruthy();
+    expect(screen.getByText('1 system')).toBeTruthy();
+  });
+
+  test('an empty lab shows what will appear and how', async () => {
+    installFakeApi({
+      'GET /api/v1/auth/session': signedInAs(demoMe),
+      [`GET ${listPath}`]: { status: 200, body: { items: [], total: 0, limit: 20, offset: 0 } },
+    });
+    await renderApp('/systems');
+    expect(screen.getByTestId('empty-state').textContent).toContain('No systems defined');
+    expect(screen.getByRole('button', { name: 'New system' })).toBeTruthy();
+  });
+
+  test('a failed list says why and offers to try again', async () => {
+    installFakeApi({
+      'GET /api/v1/auth/session': signedInAs(demoMe),
+      [`GET ${listPath}`]: { status: 403, body: { error: { code: 'forbidden', message: 'Your role in this lab does not allow this.' } } },
+    });
+    await renderApp('/systems');
+    expect(screen.getByTestId('error-state').textContent).toContain('Your role in this lab does not allow this.');
+    expect(screen.getByRole('button', { name: 'Try again' })).toBeTruthy();
+  });
+});
+
+describe('system editor', () => {
+  test('an empty name and a damping ratio of 1 show the schema errors and send nothing', async () => {
+    const api = installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
+    await renderApp('/systems/new');
+    await typeInto('Damping ratio ζ', '1');
+    await typeInto('Stiffness k (N/m)', '');
+    await press('button', 'Save system');
+    expect(screen.getByText('Give a name')).toBeTruthy();
+    expect(screen.getByLabelText('Damping ratio ζ').getAttribute('aria-invalid')).toBe('true');
+    expect(screen.getByText('Must be < 1')).toBeTruthy(); // z.number().lt(1) of the engine's schema
+    expect(screen.getByText('Enter a number')).toBeTruthy();
+    expect(api.calls.filter((c) => c.method === 'POST')).toHaveLength(0);
+  });
+
+  test('the mode facts follow the typed values, computed in the browser', async () => {
+    installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
+    await renderApp('/systems/new');
+    await typeInto('Natural frequency fₙ (Hz)', '100');
+    await typeInto('Damping ratio ζ', '0.02');
+    await waitMs(400);
+    const mode = within(screen.getByTestId('mode-1'));
+    // f_d = 100·sqrt(1 − 0.02²) = 99.980 Hz; 2ζf_n = 4 Hz.
+    expect(mode.getByText('99.980 Hz')).toBeTruthy();
+    expect(mode.getByText(/^4(\.00)? Hz$/)).toBeTruthy();
+    expect(mode.getByText(/^2(\.00)? %$/)).toBeTruthy();
+    // Decay to 1 %: ln(100)/(ζω_n) = 4.605/(0.02·2π·100) = 0.366 s.
+    expect(mode.getByText('0.366 s')).toBeTruthy();
+    expect(screen.getByTestId('system-frf-magnitude')).toBeTruthy();
+
+    await typeInto('Natural frequency fₙ (Hz)', '-5');
+    await waitMs(400);
+    expect(screen.getByTestId('preview-problem').textContent).toContain('naturalFrequencyHz');
+  });
+
+  test('switching to mass, stiffness, damping converts the values exactly', async () => {
+    installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
+    await renderApp('/systems/new');
+    await typeInto('Natural frequency fₙ (Hz)', '100');
+    await typeInto('Damping ratio ζ', '0.01');
+    await typeInto('Stiffness k (N/m)', String(4e4 * Math.PI ** 2));
+    await act(async () => {
+      fireEvent.click(screen.getByRole('radio', { name: 'Mass, stiffness, damping' }));
+    });
+    // m = k/(2π f_n)² = 4e4·π²/(4π²·1e4) = 1 kg; c = 2ζ·sqrt(k·m) = 0.02·200π = 12.566 N·s/m.
+    expect(Number((screen.getByLabelText('Mass m (kg)') as HTMLInputElement).value)).toBeCloseTo(1, 12);
+    expect(Number((screen.getByLabelText('Damping c (N·s/m)') as HTMLInputElement).value)).toBeCloseTo(4 * Math.PI, 10);
+  });
+
+  test('saving a new system posts the definition and opens it', async () => {
+    const saved = { ...record(1, armSpec), id: 'sys-new' };
+    const api = installFakeApi({
+      'GET /api/v1/auth/session': signedInAs(demoMe),
+      [`POST ${lab}/systems`]: { status: 201, body: saved },
+      [`GET ${lab}/systems/sys-new`]: { status: 200, body: saved },
+      [`GET ${lab}/systems/sys-new/versions`]: { status: 200, body: { items: [saved.version] } },
+    });
+    await renderApp('/systems/new');
+    await typeInto('Name', 'Drone motor arm');
+    await typeInto('What this version changes', 'first');
+    await press('button', 'Save system');
+    const post = api.calls.find((c) => c.method === 'POST');
+    expect(post?.body).toEqual({ name: 'Drone motor arm', description: '', note: 'first', definition: armSpec });
+    expect(window.location.pathname).toBe('/systems/sys-new');
+  });
+
+  test('a version saved by someone else meanwhile (409) is reported, and the history compares versions', async () => {
+    const v1 = record(1, armSpec);
+    const v2 = record(2, { ...armSpec, dampingRatio: 0.012 });
+    installFakeApi({
+      'GET /api/v1/auth/session': signedInAs(demoMe),
+      [`GET ${listPath}`]: { status: 200, body: { items: [summary], total: 1, limit: 20, offset: 0 } },
+      [`GET ${lab}/systems/sys-arm`]: { status: 200, body: v2 },
+      [`GET ${lab}/systems/sys-arm/versions`]: { status: 200, body: { items: [v2.version, v1.version] } },
+      [`GET ${lab}/systems/sys-arm/versions/1`]: { status: 200, body: v1 },
+      [`GET ${lab}/systems/sys-arm/versions/2`]: { status: 200, body: v2 },
+      [`PUT ${lab}/systems/sys-arm`]: { status: 409, body: { error: { code: 'version_conflict', message: 'Version 3 was saved meanwhile' } } },
+    });
+    await renderApp('/systems/sys-arm');
+    const table = screen.getByTestId('change-table');
+    expect(table.textContent).toContain('dampingRatio');
+    expect(table.textContent).toContain('0.008');
+    expect(table.textContent).toContain('0.012');
+    await press('button', 'Save version');
+    expect(screen.getByTestId('save-error').textContent).toContain('Version 3 was saved meanwhile');
+  });
+});
