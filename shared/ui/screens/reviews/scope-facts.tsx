@@ -1,7 +1,10 @@
 /** The declared scope of a recipe (structure, band, damping, excitations) as a fact list. */
 import { View } from 'react-native';
 import type { Scope } from '@/shared/api/approval';
-import { FactRow, formatNumber } from '../kit/figure';
+import { FactRow } from '../kit/figure';
+
+/** A declared figure as the lab wrote it (no padding zeros): 0.55, 120. */
+const formatNumber = (v: number) => String(Number(v.toPrecision(6)));
 
 export const excitationWords: Record<Scope['excitations'][number], string> = {
   random: 'random',

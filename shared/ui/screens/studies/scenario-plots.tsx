@@ -16,6 +16,14 @@ import { SeedFrfPanel } from './seed-frf-panel';
 
 type Props = { labId: string; study: Study; scenario: ScenarioResult; allScenarios: readonly ScenarioResult[]; position: number };
 
+/** One log domain for both axes of the scatter (so y = x is the diagonal), a little past the data. */
+function logDomain(...sets: Float64Array[]): [number, number] {
+  let low = Infinity;
+  let high = -Infinity;
+  for (const set of sets) for (const v of set) if (v > 0) [low, high] = [Math.min(low, v), Math.max(high, v)];
+  return Number.isFinite(low) ? [low / 1.5, high * 1.5] : [0.01, 1];
+}
+
 const limitOf = (s: ScenarioResult, id: string) => s.criteria.find((c) => c.id === id)?.limit;
 
 function plusMinus(id: string, label: string, limit: number | undefined): PlotRule[] {
@@ -48,7 +56,10 @@ export function ScenarioPlots({ labId, study, scenario, allScenarios, position }
     const phaseHigh = meanPhase.map((m, i) => m + 2 * stdPhase[i]);
     const predicted = toFloat(c.predictedRandomError).map((v) => v * 100);
     const observed = toFloat(c.observedRandomError).map((v) => v * 100);
-    const order = [...predicted.keys()].filter((i) => Number.isFinite(predicted[i]) && Number.isFinite(observed[i])).sort((a, b) => predicted[a] - predicted[b]);
+    const order = [...predicted.keys()]
+      // Log axes: only lines where both figures are positive (one seed, or an exact zero, gives none).
+      .filter((i) => predicted[i] > 0 && observed[i] > 0 && Number.isFinite(predicted[i]) && Number.isFinite(observed[i]))
+      .sort((a, b) => predicted[a] - predicted[b]);
     return {
       f,
       mean,
@@ -119,8 +130,8 @@ export function ScenarioPlots({ labId, study, scenario, allScenarios, position }
         <LinePlot
           title="Random error: predicted against observed"
           subtitle="Each point is one line: Bendat & Piersol's normalised random error of |H| against the scatter seen over seeds"
-          x={{ kind: 'log', label: 'Predicted random error', unit: '%' }}
-          y={{ kind: 'log', label: 'Observed random error', unit: '%' }}
+          x={{ kind: 'log', label: 'Predicted random error', unit: '%', domain: logDomain(data.scatterX, data.scatterY) }}
+          y={{ kind: 'log', label: 'Observed random error', unit: '%', domain: logDomain(data.scatterX, data.scatterY) }}
           series={[{ id: 'lines', label: 'Lines in the band', color: estColor, style: 'points', x: data.scatterX, y: data.scatterY, unit: '%' }]}
           identityLine
           testID="plot-random-error"

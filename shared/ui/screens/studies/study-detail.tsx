@@ -80,6 +80,7 @@ function StudyBody({ labId, study, live }: { labId: string; study: Study; live: 
         <>
           <StudyResultsView labId={labId} study={study} />
           <View style={styles.links}>
+            <TextLink href={`/reports/study/${study.id}`} testID="study-report">Validation report</TextLink>
             <TextLink href={links.results} external testID="csv-results">Per-line results (CSV)</TextLink>
             <TextLink href={links.criteria} external testID="csv-criteria">Criteria and verdicts (CSV)</TextLink>
           </View>
