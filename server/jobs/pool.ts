@@ -1,25 +1,27 @@
 /**
- * The default RunExecutor: a piscina pool of worker threads, so that runs never block the event
- * loop that serves the API. Threads cannot see jest's or tsx's transforms of the main thread, so
- * the pool loads a small .js entry that registers tsx and then requires the TypeScript worker.
+ * The default RunExecutor: a piscina pool of worker threads, so that neither the runs nor a
+ * study's final aggregation (assemble-scenario.ts) block the event loop that serves the API.
+ * Threads cannot see jest's or tsx's transforms of the main thread, so the pool loads a small .js
+ * entry that registers tsx and then requires the TypeScript worker (study-run.ts).
  */
 import path from 'node:path';
 import Piscina from 'piscina';
-import type { RunExecutor, RunOutcome, RunTask } from './run-task';
+import type { AssembleOutcome } from './assemble-scenario';
+import type { RunExecutor, RunOutcome } from './run-task';
 
 export const WORKER_ENTRY = path.join(__dirname, 'study-worker.js');
 
 export function createPoolExecutor(threads: number): RunExecutor {
-  const pool = new Piscina<RunTask, RunOutcome>({
+  const pool = new Piscina({
     filename: WORKER_ENTRY,
-    name: 'runStudyTask',
     minThreads: 0,
     maxThreads: threads,
     idleTimeout: 30_000,
   });
   return {
     capacity: threads,
-    run: (task, signal) => pool.run(task, signal ? { signal } : undefined),
+    run: (task, signal) => pool.run(task, { name: 'runStudyTask', signal }) as Promise<RunOutcome>,
+    assemble: (task, signal) => pool.run(task, { name: 'assembleScenarioTask', signal }) as Promise<AssembleOutcome>,
     close: () => pool.destroy(),
   };
 }

@@ -3,6 +3,7 @@
  * the study's recipe version. Tasks and outcomes are plain data (structured-clone safe) so that
  * they can cross to a worker thread, or to a worker on another machine through a distributed queue.
  */
+import type { AssembleOutcome, AssembleTask } from './assemble-scenario';
 
 export interface RunTask {
   studyId: string;
@@ -33,5 +34,7 @@ export interface RunExecutor {
   /** Parallel capacity: how many tasks are worth having in flight at once. */
   readonly capacity: number;
   run(task: RunTask, signal?: AbortSignal): Promise<RunOutcome>;
+  /** Aggregates one scenario's stored runs (assemble-scenario.ts). */
+  assemble(task: AssembleTask, signal?: AbortSignal): Promise<AssembleOutcome>;
   close(): Promise<void>;
 }

@@ -14,6 +14,7 @@ import { EventEmitter } from 'node:events';
 import type { StudyEvent, StudyProgress } from '@/shared/api/work';
 import type { Db } from '../db/knex';
 import { claimJob, finishJob, pendingJobs } from '../db/jobs';
+import { updateStudy } from '../db/studies';
 import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
 import type { RunExecutor } from './run-task';
@@ -86,14 +87,23 @@ export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
         const { studyId } = JSON.parse(job.payload) as { studyId: string };
         if (!(await claimJob(deps.db, job.id))) continue;
         try {
-          const settled = (o: 'finished' | 'failed' | 'cancelled') => finishJob(deps.db, job.id, o === 'finished' ? 'done' : o);
+          let done = false;
+          const settled = async (o: 'finished' | 'failed' | 'cancelled') => {
+            done = true;
+            await finishJob(deps.db, job.id, o === 'finished' ? 'done' : o);
+          };
           const outcome = await runStudy(deps, studyId, { ...hooks, settled });
           if (outcome === 'interrupted') return; // shutting down: the job stays running for the next start
-          await settled(outcome);
+          if (!done) await settled(outcome);
         } catch (err) {
           if (shutdown.signal.aborted) return;
           deps.logger.error({ err, studyId }, 'study job failed');
-          await finishJob(deps.db, job.id, 'failed', String((err as Error).message ?? err));
+          const message = String((err as Error).message ?? err);
+          await finishJob(deps.db, job.id, 'failed', message);
+          // The study must not stay "running" for ever: it ends as failed with the reason.
+          await updateStudy(deps.db, studyId, { status: 'failed', error: `The study could not be completed: ${message}`, finished_at: Date.now() });
+          const last = live.get(studyId);
+          hooks.end(studyId, { ...(last ?? { done: 0, failed: 0, total: 0, currentScenario: null }), status: 'failed', currentScenario: null, etaSeconds: null }, message);
         }
       }
     } while (wake && !shutdown.signal.aborted);

@@ -10,6 +10,8 @@ import { runScenarioSeed, type RunResult } from '../../shared/engine/study';
 import { packValue } from '../db/float-blob';
 import type { RunOutcome, RunTask } from './run-task';
 
+export { assembleScenarioTask } from './assemble-scenario';
+
 const finite = (v: number) => (Number.isFinite(v) ? v : null);
 
 /** The run's figures shown in the runs list (JSON: non-finite values as null). */

@@ -104,7 +104,8 @@ export async function runStudy(deps: RunnerDeps, studyId: string, hooks: StudyRu
 
   if (hooks.stopping.aborted) return 'interrupted';
   if (cancelled) return endCancelled(deps, study, hooks);
-  const final = await finaliseStudy(db, studyId);
+  const final = await finaliseStudy(db, studyId, (task) => deps.executor.assemble(task, hooks.stopping));
+  if (hooks.stopping.aborted) return 'interrupted';
   current = null;
   const end = { ...progress(final.status), etaSeconds: null };
   await hooks.settled?.(final.status);

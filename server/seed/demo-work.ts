@@ -20,6 +20,7 @@ import { insertStudy } from '../db/studies';
 import { findResourceByName, insertResource, type VersionedKind } from '../db/versioned';
 import { createLogger } from '../logger';
 import { runStudy } from '../jobs/study-runner';
+import { assembleScenarioTask } from '../jobs/assemble-scenario';
 import { runStudyTask } from '../jobs/study-run';
 import type { RunExecutor } from '../jobs/run-task';
 import { recordAudit } from '../services/audit';
@@ -79,6 +80,7 @@ function jsonFiles(dir: string): { file: string; json: unknown }[] {
 const inlineExecutor: RunExecutor = {
   capacity: 1,
   run: async (task) => runStudyTask(task),
+  assemble: async (task) => assembleScenarioTask(task),
   close: async () => undefined,
 };
 

@@ -1,7 +1,8 @@
 /**
  * A study's results, made only from its stored runs: each scenario's runs are unpacked exactly
- * and assembled by the engine (assembleStudy) in the engine's canonical seed order, so a study
- * resumed after a crash aggregates to the same bytes as one that ran straight through.
+ * and assembled by the engine (assembleStudy, through jobs/assemble-scenario.ts, on the worker
+ * pool) in the engine's canonical seed order, so a study resumed after a crash aggregates to the
+ * same bytes as one that ran straight through.
  *
  * Per scenario the engine's aggregate curves (per-line statistics over seeds) are stored as
  * Float64 blobs in result_curves (kind = the aggregate's field name, 'plain.' + name for the
@@ -10,25 +11,16 @@
  * and its error names each failed run.
  */
 import type { ScenarioResult, StudyResults } from '@/shared/api/work';
-import { parseRecipe } from '@/shared/engine/recipe';
-import type { ComparisonAggregate, RunResult, ScenarioStudyResult } from '@/shared/engine/study';
-import { assembleStudy, SEED_STRIDE } from '@/shared/engine/study';
-import type { MonteCarloAggregate } from '@/shared/engine/scores/monte-carlo';
-import { blobToFloat64, float64ToBlob, unpackValue } from '../db/float-blob';
+import { blobToFloat64, float64ToBlob } from '../db/float-blob';
 import type { Db } from '../db/knex';
 import { findStudy, findStudyById, listCurves, listRuns, replaceCurves, studyScenarios, type CurveRow } from '../db/studies';
 import { findVersion } from '../db/versioned';
 import { AppError, notFound } from '../errors';
+import type { AssembleOutcome, AssembleTask, AssembledComparison } from '../jobs/assemble-scenario';
 import { recordAudit } from './audit';
 
-const finite = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
-
-interface StoredComparison {
-  pass: boolean;
-  criteria: ComparisonAggregate['criteria'];
-  modes: ComparisonAggregate['modes'];
-  figures: Record<string, number | null>;
-}
+/** Where the aggregation runs: the worker pool in the server, in-thread in the demo seed. */
+export type Assembler = (task: AssembleTask) => Promise<AssembleOutcome>;
 
 /** What the study's summary JSON keeps per scenario. */
 export interface StoredScenarioResult {
@@ -42,8 +34,8 @@ export interface StoredScenarioResult {
   reference: string | null;
   referenceNote: string | null;
   warnings: { message: string; runs: number }[];
-  judged: StoredComparison | null;
-  plain: StoredComparison | null;
+  judged: AssembledComparison | null;
+  plain: AssembledComparison | null;
 }
 
 export interface StoredStudySummary {
@@ -51,38 +43,15 @@ export interface StoredStudySummary {
   scenarios: StoredScenarioResult[];
 }
 
-function figuresOf(a: MonteCarloAggregate): Record<string, number | null> {
-  return {
-    seeds: a.seeds,
-    lines: a.lines,
-    overallCoverage: finite(a.overallCoverage),
-    overallPhaseCoverage: finite(a.overallPhaseCoverage),
-    medianRandomErrorRatio: finite(a.medianRandomErrorRatio),
-  };
-}
-
-function storedComparison(c: ComparisonAggregate): StoredComparison {
-  return { pass: c.pass, criteria: c.criteria, modes: c.modes, figures: figuresOf(c.aggregate) };
-}
-
-/** Every Float64Array field of an aggregate, as curve rows. */
-function curveRows(scenarioId: string, a: MonteCarloAggregate, prefix = ''): CurveRow[] {
-  const rows: CurveRow[] = [];
-  for (const [kind, value] of Object.entries(a)) {
-    if (value instanceof Float64Array) rows.push({ scenario_id: scenarioId, kind: prefix + kind, length: value.length, data: float64ToBlob(value) });
-  }
-  return rows;
-}
-
 /**
  * Aggregates the stored runs and ends the study as finished (every run stored and none failed)
  * or failed, in one transaction with its curves and an audit event. Returns the final status.
  */
-export async function finaliseStudy(db: Db, studyId: string): Promise<{ status: 'finished' | 'failed'; error: string | null }> {
+export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler): Promise<{ status: 'finished' | 'failed'; error: string | null }> {
   const study = await findStudyById(db, studyId);
   if (!study) throw notFound(`Study ${studyId}`);
   const recipeRow = await findVersion(db, 'recipes', study.recipe_id, study.recipe_version);
-  const recipe = parseRecipe(JSON.parse(recipeRow!.body));
+  const recipe = JSON.parse(recipeRow!.body) as unknown;
   const scenarios = await studyScenarios(db, studyId);
   const runs = await listRuns(db, studyId, { withScores: true });
   const curves: CurveRow[] = [];
@@ -111,20 +80,23 @@ export async function finaliseStudy(db: Db, studyId: string): Promise<{ status: 
       results.push(base);
       continue;
     }
-    const assembled: ScenarioStudyResult = assembleStudy(
-      { recipe, scenarios: [JSON.parse(s.body)], seeds: study.seeds, baseSeed: study.base_seed + s.position * SEED_STRIDE },
-      mine.map((r) => unpackValue<RunResult>(r.line_scores!)),
-    ).results[0];
-    curves.push(...curveRows(s.scenario_id, assembled.judged.aggregate));
-    if (assembled.plain) curves.push(...curveRows(s.scenario_id, assembled.plain.aggregate, 'plain.'));
+    const assembled = await assemble({
+      recipe,
+      scenario: JSON.parse(s.body),
+      position: s.position,
+      seeds: study.seeds,
+      baseSeed: study.base_seed,
+      runs: mine.map((r) => new Uint8Array(r.line_scores!.buffer, r.line_scores!.byteOffset, r.line_scores!.byteLength)),
+    });
+    for (const c of assembled.curves) curves.push({ scenario_id: s.scenario_id, kind: c.kind, length: c.values.length, data: float64ToBlob(c.values) });
     results.push({
       ...base,
       aggregated: true,
       reference: assembled.reference,
-      referenceNote: assembled.referenceNote ?? null,
+      referenceNote: assembled.referenceNote,
       warnings: assembled.warnings,
-      judged: storedComparison(assembled.judged),
-      plain: assembled.plain ? storedComparison(assembled.plain) : null,
+      judged: assembled.judged,
+      plain: assembled.plain,
     });
   }
   const status = failures.length ? 'failed' : 'finished';

@@ -124,6 +124,25 @@ describe('a study whose runs fail', () => {
   }, 60_000);
 });
 
+describe('a study that cannot be completed', () => {
+  it('ends as failed with the reason instead of staying "running" (a stored run that cannot be read)', async () => {
+    const res = await start({ name: 'Damaged run', recipe: { id: ids.exactRecipe }, scenarios: [{ id: ids.periodic }], seeds: 2 }).expect(202);
+    const url = `${lab}/studies/${res.body.id}`;
+    expect((await waitForStudy(analyst, url)).status).toBe('finished');
+    const jobOf = () => t.db('jobs').whereRaw("json_extract(payload, '$.studyId') = ?", [res.body.id]);
+    while ((await jobOf().first()).status !== 'done') await new Promise((r) => setTimeout(r, 10));
+    // Damage one stored run and put the study back in the queue, as a half-finished one would be.
+    await t.db('runs').where({ study_id: res.body.id, seed_index: 1 }).update({ line_scores: Buffer.from('not a packed run') });
+    await t.db('studies').where({ id: res.body.id }).update({ status: 'running', finished_at: null });
+    await jobOf().update({ status: 'queued' });
+    t.running.studies.enqueue(res.body.id);
+    const ended = await waitForStudy(analyst, url);
+    expect(ended.status).toBe('failed');
+    expect(ended.error).toMatch(/^The study could not be completed: /);
+    expect((await jobOf().first()).status).toBe('failed');
+  }, 60_000);
+});
+
 describe('cancellation', () => {
   it('stops scheduling runs of a running study and ends it as cancelled', async () => {
     const res = await start({ name: 'Long one', recipe: { id: ids.hannRecipe }, scenarios: [{ id: ids.noisy }], seeds: 400 }).expect(202);
