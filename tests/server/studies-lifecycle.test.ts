@@ -181,6 +181,21 @@ describe('cancellation', () => {
   }, 60_000);
 });
 
+describe('the list of studies', () => {
+  it('filters by status and name, sorts and pages on the server', async () => {
+    const finished = await analyst.get(`${lab}/studies?status=finished&sort=createdAt&order=asc`).expect(200);
+    expect(finished.body.items.length).toBeGreaterThan(0);
+    expect(finished.body.items.every((s: { status: string }) => s.status === 'finished')).toBe(true);
+    const times = finished.body.items.map((s: { createdAt: number }) => s.createdAt);
+    expect([...times].sort((a, b) => a - b)).toEqual(times);
+    const named = await analyst.get(`${lab}/studies?q=periods%20and&limit=1`).expect(200);
+    expect(named.body).toMatchObject({ total: 1, limit: 1, items: [{ name: 'Whole periods and noise', status: 'finished', pass: expect.any(Boolean) }] });
+    const page = await analyst.get(`${lab}/studies?sort=name&order=desc&limit=2&offset=1`).expect(200);
+    expect(page.body.items).toHaveLength(2);
+    await analyst.get(`${lab}/studies?status=sleeping`).expect(400);
+  });
+});
+
 describe('requests that are refused', () => {
   it.each([
     ['an unknown recipe', () => ({ name: 'x', recipe: { id: 'nope' }, scenarios: [{ id: ids.noisy }] }), 404],
