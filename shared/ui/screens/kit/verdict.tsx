@@ -11,7 +11,8 @@ export function Verdict({ pass, testID }: { pass: boolean | null | undefined; te
 const studyTone: Record<StudyStatus, StatusTone> = {
   queued: 'neutral',
   running: 'neutral',
-  finished: 'pass',
+  // Finished says nothing about the verdict, so it is not drawn in the pass colour.
+  finished: 'neutral',
   failed: 'fail',
   cancelled: 'warning',
 };

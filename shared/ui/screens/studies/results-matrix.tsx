@@ -3,6 +3,7 @@
  * and a mark (never colour alone) and the observed value with its unit; a row leads to that
  * scenario's plots. Phones get one card per scenario instead of a wide table.
  */
+import { useState } from 'react';
 import { ScrollView, StyleSheet, View } from 'react-native';
 import type { ScenarioResult } from '@/shared/api/work';
 import { AppText, StatusBadge } from '@/shared/ui/components';
@@ -46,36 +47,53 @@ export function CriterionCell({ criterion }: { criterion: Criterion | undefined 
 
 type MatrixProps = { studyId: string; scenarios: readonly ScenarioResult[] };
 
+/** Width the table needs: the name column, each criterion column and the gaps between them. */
+export const tableWidth = (columns: number) => NAME_WIDTH + columns * (COLUMN_WIDTH + space.md) + space.lg;
+const NAME_WIDTH = 180;
+const COLUMN_WIDTH = 130;
+
 export function ResultsMatrix({ studyId, scenarios }: MatrixProps) {
   const wide = useWideLayout();
+  const [available, setAvailable] = useState(0);
   const columns = criterionColumns(scenarios);
-  if (!wide) {
-    return (
-      <View style={styles.cards} testID="results-matrix">
-        {scenarios.map((s, index) => (
-          <RowLink key={s.scenarioId} href={`/studies/${studyId}/${index}`} label={`${s.name}: ${s.pass ? 'pass' : 'fail'}`} testID={`matrix-row-${index}`}>
-            <View style={styles.card}>
-              <View style={styles.cardHead}>
-                <AppText variant="bodyStrong" style={styles.flex}>
-                  {s.name}
-                </AppText>
-                <Verdict pass={s.pass} />
-              </View>
-              {s.criteria.map((c) => (
-                <View key={c.id} style={styles.cardRow}>
-                  <AppText variant="small" style={styles.flex}>
-                    {c.label}
-                  </AppText>
-                  <CriterionCell criterion={c} />
-                </View>
-              ))}
-              <AppText variant="small" tone="muted">{`${s.seeds} seeds${s.failedRuns ? `, ${s.failedRuns} failed runs` : ''} · plots ›`}</AppText>
+  // The table only where it fits (measured); otherwise one card per scenario.
+  const table = wide && available >= tableWidth(columns.length);
+  return (
+    <View onLayout={(e) => setAvailable(e.nativeEvent.layout.width)}>
+      {table ? <MatrixTable studyId={studyId} scenarios={scenarios} columns={columns} /> : <MatrixCards studyId={studyId} scenarios={scenarios} />}
+    </View>
+  );
+}
+
+function MatrixCards({ studyId, scenarios }: MatrixProps) {
+  return (
+    <View style={styles.cards} testID="results-matrix">
+      {scenarios.map((s, index) => (
+        <RowLink key={s.scenarioId} href={`/studies/${studyId}/${index}`} label={`${s.name}: ${s.pass ? 'pass' : 'fail'}`} testID={`matrix-row-${index}`}>
+          <View style={styles.card}>
+            <View style={styles.cardHead}>
+              <AppText variant="bodyStrong" style={styles.flex}>
+                {s.name}
+              </AppText>
+              <Verdict pass={s.pass} />
             </View>
-          </RowLink>
-        ))}
-      </View>
-    );
-  }
+            {s.criteria.map((c) => (
+              <View key={c.id} style={styles.cardRow}>
+                <AppText variant="small" style={styles.flex}>
+                  {c.label}
+                </AppText>
+                <CriterionCell criterion={c} />
+              </View>
+            ))}
+            <AppText variant="small" tone="muted">{`${s.seeds} seeds${s.failedRuns ? `, ${s.failedRuns} failed runs` : ''} · plots ›`}</AppText>
+          </View>
+        </RowLink>
+      ))}
+    </View>
+  );
+}
+
+function MatrixTable({ studyId, scenarios, columns }: MatrixProps & { columns: { id: string; label: string }[] }) {
   return (
     <ScrollView horizontal contentContainerStyle={styles.tableScroll}>
       <View role="table" aria-label="Pass/fail matrix, scenario by criterion" testID="results-matrix" style={styles.table}>
@@ -133,6 +151,6 @@ const styles = StyleSheet.create({
   table: { gap: space.xs, minWidth: '100%' },
   tr: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md, flex: 1 },
   th: { paddingLeft: space.lg, paddingBottom: space.xs, borderBottomWidth: stroke.rule, borderBottomColor: colors.borderStrong },
-  nameCol: { width: 180, gap: space.xs },
-  col: { width: 130, alignItems: 'flex-end' },
+  nameCol: { width: NAME_WIDTH, gap: space.xs },
+  col: { width: COLUMN_WIDTH, alignItems: 'flex-end' },
 });

@@ -21,6 +21,7 @@ const typeHints: Record<string, string> = {
   seeds: 'Enter a whole number of seeds, 1 to 1000',
   baseSeed: 'Enter a whole number, 0 or more',
   'recipe.id': 'Choose a recipe',
+  scenarios: 'Tick at least one scenario',
 };
 
 /** The server schema, with plain words where zod's own type messages would show. */
