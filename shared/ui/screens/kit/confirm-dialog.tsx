@@ -39,7 +39,7 @@ export function ConfirmDialog({
   testID,
 }: ConfirmDialogProps) {
   return (
-    <Modal visible={visible} transparent animationType="fade" onRequestClose={onCancel}>
+    <Modal visible={visible} transparent animationType="none" onRequestClose={onCancel}>
       <View style={styles.backdrop}>
         <View style={styles.dialog} role="dialog" aria-modal aria-label={title} testID={testID ?? 'confirm-dialog'}>
           <ScrollView contentContainerStyle={styles.content}>
