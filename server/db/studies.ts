@@ -59,6 +59,10 @@ export interface RunRow {
   finished_at: number;
 }
 
+const RUN_COLUMNS: (keyof RunRow)[] = [
+  'id', 'study_id', 'scenario_id', 'scenario_version', 'position', 'seed_index', 'seed', 'status', 'summary', 'line_scores', 'error', 'started_at', 'finished_at',
+];
+
 const STUDY_COLUMNS = ['s.*', 'rv.name as recipe_name', 'u.display_name as created_by_name'];
 
 function studies(db: Db) {
@@ -144,7 +148,9 @@ export async function updateStudy(db: Db, id: string, patch: Partial<Omit<StudyR
 /** Runs of a study in the fixed order (position, seed index), optionally without their blobs. */
 export function listRuns(db: Db, studyId: string, opts: { withScores?: boolean } = {}): Promise<RunRow[]> {
   const q = db('runs').where({ study_id: studyId }).orderBy([{ column: 'position' }, { column: 'seed_index' }]);
-  return opts.withScores ? q.select('*') : q.select(db.raw('runs.*, null as line_scores'));
+  if (opts.withScores) return q.select('*');
+  // The lists never need the blobs: leave them on disk.
+  return q.select(RUN_COLUMNS.filter((c) => c !== 'line_scores')).then((rows: RunRow[]) => rows.map((r) => ({ ...r, line_scores: null })));
 }
 
 /** The (position, seed index) pairs already stored, as "position:seedIndex" keys. */
