@@ -120,6 +120,24 @@ describe('system editor', () => {
     expect(Number((screen.getByLabelText('Damping c (N·s/m)') as HTMLInputElement).value)).toBeCloseTo(4 * Math.PI, 10);
   });
 
+  test('switching the model keeps what was typed for the other model', async () => {
+    installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
+    await renderApp('/systems/new');
+    await typeInto('Natural frequency fₙ (Hz)', '123');
+    await act(async () => {
+      fireEvent.click(screen.getByRole('radio', { name: 'Modes (modal)' }));
+    });
+    expect(screen.getByRole('group', { name: 'Mode 3' })).toBeTruthy();
+    await act(async () => {
+      fireEvent.click(screen.getByRole('radio', { name: 'Masses, springs, dampers' }));
+    });
+    expect(screen.getByLabelText('Mass 2 (kg)')).toBeTruthy();
+    await act(async () => {
+      fireEvent.click(screen.getByRole('radio', { name: 'Single mass (SDOF)' }));
+    });
+    expect((screen.getByLabelText('Natural frequency fₙ (Hz)') as HTMLInputElement).value).toBe('123');
+  });
+
   test('saving a new system posts the definition and opens it', async () => {
     const saved = { ...record(1, armSpec), id: 'sys-new' };
     const api = installFakeApi({

@@ -60,8 +60,12 @@ export function createResourceHooks<D>(kind: ResourceKind, versionSchema: z.ZodT
     void client.invalidateQueries({ queryKey: ['study-inputs', labId] });
   }
 
+  /** The latest version, for callers that fetch on demand (client.fetchQuery with keys.latest). */
+  const fetchLatest = (labId: string, id: string, signal?: AbortSignal) => api.get(itemPath(labId, id), { schema: versionSchema, signal });
+
   return {
     keys,
+    fetchLatest,
     useList(labId: string, filter: ListFilter) {
       return useQuery<ResourceList>({
         queryKey: keys.list(labId, filter),

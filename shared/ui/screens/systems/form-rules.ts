@@ -18,6 +18,7 @@ export function friendlyIssue(issue: Issue): string | undefined {
   if (issue.code === 'invalid_type' && missing) return 'Required';
   if (issue.code === 'too_small' && issue.origin === 'number') return `Must be ${issue.inclusive ? '≥' : '>'} ${issue.minimum}`;
   if (issue.code === 'too_big' && issue.origin === 'number') return `Must be ${issue.inclusive ? '≤' : '<'} ${issue.maximum}`;
+  if (issue.code === 'too_small' && issue.origin === 'string' && issue.minimum === 1) return 'Required';
   if (issue.code === 'too_small' && issue.origin === 'array') return `Needs at least ${issue.minimum}`;
   if (issue.code === 'invalid_format' || (issue.code === 'invalid_type' && issue.expected === 'int')) return 'Enter a whole number';
   return undefined;
@@ -42,7 +43,7 @@ export function definitionPath(field: string, dropPrefix?: string): (string | nu
  * parser), whose EngineInputError becomes an error on the named field.
  */
 export function engineCheckedResolver<T extends FieldValues>(
-  schema: z.ZodType<T>,
+  schema: z.ZodType,
   parse: (definition: unknown) => unknown,
   dropPrefix?: string,
 ): Resolver<T> {

@@ -63,7 +63,7 @@ function ModeCard({ index, mode }: { index: number; mode: ModeFacts }) {
     <View style={styles.card} role="group" aria-label={`Mode ${index + 1}`} testID={`mode-${index + 1}`}>
       <AppText variant="bodyStrong">{`Mode ${index + 1}`}</AppText>
       <FactRow label="Natural frequency fₙ" value={mode.naturalFrequencyHz} unit="Hz" digits={5} />
-      <FactRow label="Damped frequency f_d" value={mode.dampedFrequencyHz} unit="Hz" digits={5} />
+      <FactRow label="Damped natural frequency" value={mode.dampedFrequencyHz} unit="Hz" digits={5} />
       <FactRow label="Damping ratio ζ" value={mode.dampingRatio * 100} unit="%" digits={3} />
       <FactRow label="Half-power bandwidth 2ζfₙ" value={mode.halfPowerBandwidthHz} unit="Hz" digits={3} />
       <FactRow label="Decay to 1 %" value={mode.decayTimeS.to1Percent} unit="s" digits={3} />
