@@ -26,7 +26,7 @@ export function HomeScreen() {
       <PageHead title="Bench" eyebrow={name ? `Welcome, ${name}` : 'Welcome'} intro={lab ? `${lab.labName}: your work in progress, and what is waiting for you.` : 'You are not a member of any lab yet.'} />
       <View style={[styles.grid, wide && styles.gridWide]}>
         <View style={[styles.col, wide && styles.colWide]}>
-          <RunningStudies labId={labId} />
+          <RunningStudies labId={labId} canStart={lab?.role === 'analyst'} />
           <RecentResults labId={labId} />
         </View>
         <View style={[styles.col, wide && styles.colWide]}>

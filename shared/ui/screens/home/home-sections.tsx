@@ -25,13 +25,13 @@ function LiveStudy({ labId, study }: { labId: string; study: StudyList['items'][
   return null;
 }
 
-export function RunningStudies({ labId }: { labId: string }) {
+export function RunningStudies({ labId, canStart }: { labId: string; canStart: boolean }) {
   const running = useStudies(labId, { status: 'running' });
   const queued = useStudies(labId, { status: 'queued' });
   return (
     <Panel title="Studies running" testID="home-running">
       <QueryView query={running} isEmpty={(d) => d.items.length === 0 && (queued.data?.items.length ?? 0) === 0}
-        empty={{ title: 'No study is running', body: 'Studies you start run in the background; their progress shows here.', action: <TextLink href="/studies/new">Start a study</TextLink> }}>
+        empty={{ title: 'No study is running', body: 'Studies run in the background; their progress shows here while they run.', action: canStart ? <TextLink href="/studies/new">Start a study</TextLink> : undefined }}>
         {(d) => {
           const items = [...d.items, ...(queued.data?.items ?? [])];
           return (

@@ -8,6 +8,23 @@ import { FactRow } from '../kit/figure';
 import { Panel } from '../kit/panel';
 import { toFloat } from '../studies/seed-frf';
 
+const summaryWords: Record<string, string> = {
+  lines: 'Lines scored',
+  undefinedLines: 'Lines without a score (exact FRF zero)',
+  bandLowHz: 'Band from',
+  bandHighHz: 'Band to',
+  maxAbsMagnitudeDb: 'Largest |magnitude error|',
+  worstMagnitudeHz: 'at',
+  rmsMagnitudeDb: 'RMS magnitude error',
+  maxAbsPhaseDeg: 'Largest |phase error|',
+  worstPhaseHz: 'at',
+  maxComplexRelative: 'Largest complex relative error',
+  worstComplexHz: 'at',
+};
+/** A summary key's unit from its name (the server names them …Hz, …Db, …Deg). */
+export const summaryUnit = (key: string) => (/Hz$/.test(key) ? 'Hz' : /Db$/.test(key) ? 'dB' : /Deg$/.test(key) ? '°' : '');
+const summaryLabel = (key: string) => summaryWords[key] ?? key.replace(/([A-Z])/g, ' $1').toLowerCase();
+
 const complex = (c: { re: (number | null)[]; im: (number | null)[] }) => ({ re: toFloat(c.re), im: toFloat(c.im) });
 
 export function UploadResultView({ result }: { result: UploadResult }) {
@@ -38,7 +55,7 @@ export function UploadResultView({ result }: { result: UploadResult }) {
   return (
     <View style={styles.wrap} testID="upload-result">
       <Panel title="Scores against the exact FRF">
-        {Object.entries(r.summary).map(([key, value]) => <FactRow key={key} label={key} value={value} unit={/Db$/.test(key) ? 'dB' : /Deg$/.test(key) ? '°' : ''} />)}
+        {Object.entries(r.summary).map(([key, value]) => <FactRow key={key} label={summaryLabel(key)} value={value} unit={summaryUnit(key)} />)}
       </Panel>
       <FrfPlot title="Your FRF against the exact one" unit={r.unit} testID="upload-frf"
         curves={[
