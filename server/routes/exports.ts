@@ -9,7 +9,7 @@ import { exactExportQuerySchema, signalsExportQuerySchema } from '@/shared/api/w
 import type { AppDeps } from '../app';
 import { labRoute } from '../auth/permissions';
 import { formatCsvCell } from '../services/csv-format';
-import { scenarioExact, scenarioSignals, studyCriteriaCsv, studyResultsCsv, type CsvExport } from '../services/exports';
+import { scenarioExact, scenarioSignals, scenarioSignalsWav, studyCriteriaCsv, studyResultsCsv, type CsvExport } from '../services/exports';
 import { parseBody } from './parse';
 
 const idParam = z.object({ id: z.string() });
@@ -37,6 +37,15 @@ export function exportRoutes(deps: AppDeps): Router {
   const lab = '/labs/:labId';
   labRoute(r, deps.db, { method: 'get', path: `${lab}/scenarios/:id/signals.csv`, action: 'exports.read', summary: "A scenario's force and response signals for one seed (CSV)", query: signalsExportQuerySchema, produces: 'text/csv' }, async (req, res) => {
     await sendCsv(res, await scenarioSignals(deps.db, req.lab!.id, parseBody(idParam, req.params).id, parseBody(signalsExportQuerySchema, req.query)));
+  });
+  labRoute(r, deps.db, { method: 'get', path: `${lab}/scenarios/:id/signals.wav`, action: 'exports.read', summary: "A scenario's force and response signals for one seed (2-channel 32-bit float WAV; each channel scaled by its peak, scales in the X-Channel-Scales header and the file's comment)", query: signalsExportQuerySchema, produces: 'audio/wav' }, async (req, res) => {
+    const wav = await scenarioSignalsWav(deps.db, req.lab!.id, parseBody(idParam, req.params).id, parseBody(signalsExportQuerySchema, req.query));
+    res.setHeader('Content-Type', 'audio/wav');
+    res.setHeader('Content-Disposition', `attachment; filename="${wav.filename}"`);
+    res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('X-Channel-Scales', wav.scales.map((v) => v.toPrecision(17)).join(','));
+    res.setHeader('X-Wav-Comment', encodeURIComponent(wav.comment));
+    res.end(wav.bytes);
   });
   labRoute(r, deps.db, { method: 'get', path: `${lab}/scenarios/:id/exact.csv`, action: 'exports.read', summary: "A scenario's exact FRF (CSV)", query: exactExportQuerySchema, produces: 'text/csv' }, async (req, res) => {
     await sendCsv(res, await scenarioExact(deps.db, req.lab!.id, parseBody(idParam, req.params).id, parseBody(exactExportQuerySchema, req.query)));

@@ -14,6 +14,7 @@ import { AppError, notFound } from '../errors';
 import type { CsvCell } from './csv-format';
 import { checkedByEngine } from './engine-input';
 import { getStudyResults } from './study-results';
+import { encodeFloatWav, type WavFile } from './wav';
 
 export interface CsvExport {
   filename: string;
@@ -56,6 +57,22 @@ export async function scenarioSignals(db: Db, labId: string, id: string, q: { se
       'X-Samples': String(record.input.length),
     },
   };
+}
+
+/** The same signals as scenarioSignals, as a two-channel 32-bit float WAV (see wav.ts). */
+export async function scenarioSignalsWav(
+  db: Db,
+  labId: string,
+  id: string,
+  q: { seed: number; version?: number },
+): Promise<WavFile & { filename: string }> {
+  const s = await scenarioDefinition(db, labId, id, q.version);
+  const record = checkedByEngine('scenario', () => simulateScenario(s.definition as never, q.seed));
+  const wav = encodeFloatWav(record.sampleRateHz, [
+    { name: 'input (force)', unit: record.inputUnit, samples: record.input },
+    { name: 'output (response)', unit: record.outputUnit, samples: record.output },
+  ]);
+  return { ...wav, filename: `${fileSafe(s.name)}-v${s.version}-seed-${q.seed}-signals.wav` };
 }
 
 export async function scenarioExact(db: Db, labId: string, id: string, q: { df?: number; version?: number }): Promise<CsvExport> {
