@@ -1,5 +1,7 @@
-import { screen } from '@testing-library/dom';
+import { fireEvent, screen } from '@testing-library/dom';
+import { act } from 'react';
 import { renderApp, setWindowWidth } from './support/app';
+import { settle } from './support/dom';
 import { press, typeInto } from './support/form';
 import { auditEvent, installEvidenceApi, lab, meAs, ok, page, session } from './studies-fixtures';
 
@@ -48,7 +50,7 @@ describe('audit trail', () => {
       ...session(meAs('auditor')),
       [`GET ${lab('/audit/verify')}`]: ok({ ok: true, checked: 2, firstBroken: null }),
       [`GET ${lab('/audit')}`]: ok(trail),
-      [`GET ${lab('/members')}`]: ok(page([])),
+      [`GET ${lab('/members')}`]: ok(page([{ userId: 'user-analyst', email: 'analyst@harborridge.test', displayName: 'Tomas Lindqvist', role: 'analyst', joinedAt: 1 }])),
     });
     await renderApp('/audit');
     await typeInto('Action', 'studies.*');
@@ -62,6 +64,18 @@ describe('audit trail', () => {
     expect(q.get('action')).toBe('studies.*');
     expect(q.get('from')).toBe('2026-11-01');
     expect(q.get('offset')).toBe('0');
+
+    // "Who": one person, then "Anyone" again (the empty choice stays selectable).
+    const who = async (value: string) => {
+      await act(async () => {
+        fireEvent.change(screen.getByLabelText('Who'), { target: { value } });
+      });
+      await settle();
+      await press('button', 'Apply filters');
+      return api.called('GET', lab('/audit')).at(-1)!.query.get('actor');
+    };
+    expect(await who('user-analyst')).toBe('user-analyst');
+    expect(await who('')).toBeNull();
   });
 
   test('an analyst is told the trail is not for their role, and nothing is asked of the server', async () => {

@@ -46,7 +46,7 @@ function AuditBody({ labId }: { labId: string }) {
       <IntegrityCheck labId={labId} />
       <Panel title="Filters">
         <TextField label="Action" hint="An action, or a family with *, e.g. reviews.* or studies.start" value={draft.action} onChangeText={(action) => setDraft((d) => ({ ...d, action }))} autoCapitalize="none" testID="audit-action" />
-        <SelectField label="Who" placeholder="Anyone" value={draft.actor || undefined} options={(members.data?.items ?? []).map((m) => ({ value: m.userId, label: m.displayName }))} onChange={(actor) => setDraft((d) => ({ ...d, actor }))} />
+        <SelectField label="Who" emptyLabel="Anyone" value={draft.actor || undefined} options={(members.data?.items ?? []).map((m) => ({ value: m.userId, label: m.displayName }))} onChange={(actor) => setDraft((d) => ({ ...d, actor }))} />
         <View style={styles.row}>
           <View style={styles.flex}><TextField label="From (UTC day)" value={draft.from} onChangeText={(from) => setDraft((d) => ({ ...d, from }))} error={problem && draft.from && !DAY.test(draft.from) ? problem : undefined} /></View>
           <View style={styles.flex}><TextField label="To, inclusive (UTC day)" value={draft.to} onChangeText={(to) => setDraft((d) => ({ ...d, to }))} error={problem && draft.to && !DAY.test(draft.to) ? problem : undefined} /></View>

@@ -50,7 +50,8 @@ export function ChoiceChips<T extends string>({ label, options, value, onChange,
   );
 }
 
-export function SelectField<T extends string>({ label, options, value, onChange, error, hint, testID, placeholder }: ChoiceProps<T> & { placeholder?: string }) {
+/** `placeholder` shows until something is chosen; with `emptyLabel` the empty choice stays selectable (filters: "any"). */
+export function SelectField<T extends string>({ label, options, value, onChange, error, hint, testID, placeholder, emptyLabel }: ChoiceProps<T> & { placeholder?: string; emptyLabel?: string }) {
   const id = `select-${useId().replace(/[^a-zA-Z0-9_-]/g, '')}`;
   if (Platform.OS !== 'web') return <ChoiceChips label={label} options={options} value={value} onChange={onChange} error={error} hint={hint} testID={testID} />;
   const select = createElement(
@@ -65,7 +66,9 @@ export function SelectField<T extends string>({ label, options, value, onChange,
       style: selectStyle,
     },
     [
-      createElement('option', { key: '', value: '', disabled: true }, placeholder ?? 'Choose…'),
+      emptyLabel !== undefined
+        ? createElement('option', { key: '', value: '' }, emptyLabel)
+        : createElement('option', { key: '', value: '', disabled: true }, placeholder ?? 'Choose…'),
       ...options.map((o) => createElement('option', { key: o.value, value: o.value }, o.label)),
     ],
   );

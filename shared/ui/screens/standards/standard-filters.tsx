@@ -48,7 +48,7 @@ export function StandardFilters({ onApply }: { onApply: (filter: StandardFilter)
         <View style={styles.flex}><TextField label="to (Hz)" value={draft.highHz} onChangeText={set('highHz')} inputMode="decimal" error={problems.highHz} /></View>
       </View>
       <TextField label="Damping of the structure (% of critical)" value={draft.dampingPercent} onChangeText={set('dampingPercent')} inputMode="decimal" error={problems.dampingPercent} />
-      <SelectField label="Excitation" placeholder="Any excitation" value={draft.excitation || undefined} options={EXCITATION_KINDS.map((e) => ({ value: e, label: excitationWords[e] }))} onChange={set('excitation')} />
+      <SelectField label="Excitation" emptyLabel="Any excitation" value={draft.excitation || undefined} options={EXCITATION_KINDS.map((e) => ({ value: e, label: excitationWords[e] }))} onChange={set('excitation')} />
       <ChoiceChips label="Status" value={draft.status} options={[{ value: 'active', label: 'Active only' }, { value: 'all', label: 'All, with retired and superseded' }]} onChange={(v) => setDraft((d) => ({ ...d, status: v }))} />
       <View style={styles.row}>
         <Button label="Apply filters" variant="secondary" compact onPress={apply} testID="apply-filters" />
