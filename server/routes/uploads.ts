@@ -59,7 +59,9 @@ export function uploadRoutes(deps: AppDeps): Router {
   const r = Router();
   const base = '/labs/:labId/uploads';
   const dataDir = deps.config.dataDir;
-  sweepIncoming(dataDir); // files left half-received by a process that stopped mid-upload
+  // At start no upload is in flight in this process: anything in incoming/ was left half-received
+  // by a process that stopped mid-upload (one server per DATA_DIR), so all of it goes.
+  sweepIncoming(dataDir, 0);
   labRoute(r, deps.db, { method: 'get', path: base, action: 'uploads.read', summary: 'List the uploads of a lab', query: uploadListQuerySchema, response: uploadListSchema }, async (req, res) => {
     res.json(await listLabUploads(deps.db, req.lab!.id, parseBody(uploadListQuerySchema, req.query)));
   });
