@@ -87,6 +87,27 @@ describe('a study and its results', () => {
     expect(screen.getByTestId('empty-state').textContent).toContain('No studies run yet');
   });
 
+  test('a running study’s row in the list follows the study, and the list is fetched again when it ends', async () => {
+    let detail = runningStudy(1);
+    const api = installEvidenceApi({
+      ...session(meAs('analyst')),
+      [`GET ${lab('/studies')}`]: () => ok(page([detail.status === 'running' ? runningStudy(1) : detail])),
+      [`GET ${lab('/studies/study-1')}`]: () => ok(detail),
+    });
+    await renderApp('/studies');
+    const bar = () => within(screen.getByTestId('study-list')).queryByRole('progressbar');
+    expect(bar()!.getAttribute('aria-valuenow')).toBe('1');
+    detail = runningStudy(3);
+    await waitMs(1700);
+    expect(bar()!.getAttribute('aria-valuenow')).toBe('3');
+    const listCalls = api.called('GET', lab('/studies')).length;
+    detail = study();
+    await waitMs(1700);
+    expect(api.called('GET', lab('/studies')).length).toBeGreaterThan(listCalls);
+    expect(bar()).toBeNull();
+    expect(screen.getByTestId('study-list').textContent).toContain('Fail');
+  });
+
   test('a failing server shows an error with a way to try again', async () => {
     installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/studies/study-1')}`]: { status: 500, body: { error: { code: 'internal', message: 'The database is busy.' } } } });
     await renderApp('/studies/study-1');

@@ -3,10 +3,9 @@ import { StyleSheet, View } from 'react-native';
 import type { Role } from '@/shared/api/auth';
 import { useReviews } from '@/shared/ui/api/reviews';
 import { useStandards } from '@/shared/ui/api/standards';
-import { useStudies, useStudyLive } from '@/shared/ui/api/studies';
+import { useStudies } from '@/shared/ui/api/studies';
 import { AppText } from '@/shared/ui/components';
 import { space } from '@/shared/ui/theme';
-import type { StudyList } from '@/shared/api/work';
 import { formatDate } from '../kit/figure';
 import { Panel, RowLink, TextLink } from '../kit/panel';
 import { QueryView } from '../kit/query-view';
@@ -19,12 +18,6 @@ const DAY_MS = 86_400_000;
 /** Standards whose review falls due within this many days are listed. */
 export const DUE_WITHIN_DAYS = 60;
 
-/** Subscribes to one running study's events so its row in the list moves live. */
-function LiveStudy({ labId, study }: { labId: string; study: StudyList['items'][number] }) {
-  useStudyLive(labId, study.id, study.status);
-  return null;
-}
-
 export function RunningStudies({ labId, canStart }: { labId: string; canStart: boolean }) {
   const running = useStudies(labId, { status: 'running' });
   const queued = useStudies(labId, { status: 'queued' });
@@ -34,12 +27,7 @@ export function RunningStudies({ labId, canStart }: { labId: string; canStart: b
         empty={{ title: 'No study is running', body: 'Studies run in the background; their progress shows here while they run.', action: canStart ? <TextLink href="/studies/new">Start a study</TextLink> : undefined }}>
         {(d) => {
           const items = [...d.items, ...(queued.data?.items ?? [])];
-          return (
-            <>
-              {items.map((s) => <LiveStudy key={s.id} labId={labId} study={s} />)}
-              <StudyRows items={items} />
-            </>
-          );
+          return <StudyRows labId={labId} items={items} />;
         }}
       </QueryView>
     </Panel>
@@ -51,7 +39,7 @@ export function RecentResults({ labId }: { labId: string }) {
   return (
     <Panel title="Recent results" aside={<TextLink href="/studies">All studies</TextLink>} testID="home-results">
       <QueryView query={finished} isEmpty={(d) => d.items.length === 0} empty={{ title: 'No results yet', body: 'Finished studies with their verdicts will be listed here, newest first.' }}>
-        {(d) => <StudyRows items={d.items} />}
+        {(d) => <StudyRows labId={labId} items={d.items} />}
       </QueryView>
     </Panel>
   );
