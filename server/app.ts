@@ -86,7 +86,27 @@ function errorHandler(logger: Logger): ErrorRequestHandler {
       res.status(status).json({ error: { code, message } });
       return;
     }
+    const storage = storageError(err);
+    if (storage) {
+      logger.error({ err, method: req.method, url: req.originalUrl }, 'database refused a write');
+      res.status(503).json({ error: storage });
+      return;
+    }
     logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
     res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server. It has been logged.' } });
   };
+}
+
+/**
+ * SQLite errors that say the storage, not the request, is at fault (SQLite result codes,
+ * sqlite.org/rescode.html): answered 503 with the cause in words. SQLite rolls the statement
+ * back, so nothing half-written is left.
+ */
+function storageError(err: unknown): { code: string; message: string } | null {
+  const code = typeof (err as { code?: unknown })?.code === 'string' ? (err as { code: string }).code : '';
+  if (code === 'SQLITE_FULL') return { code: 'storage_full', message: 'The database is full (no space left for it); nothing was saved. Free disk space and try again.' };
+  if (code.startsWith('SQLITE_READONLY')) return { code: 'storage_read_only', message: 'The database is read-only (file or folder permissions, or read-only mode); nothing was saved.' };
+  if (code.startsWith('SQLITE_IOERR') || code === 'SQLITE_CANTOPEN') return { code: 'storage_error', message: 'The database file could not be written (disk or file error); nothing was saved.' };
+  if (code.startsWith('SQLITE_BUSY')) return { code: 'storage_busy', message: 'The database is busy; nothing was saved. Try again in a moment.' };
+  return null;
 }

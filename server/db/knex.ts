@@ -11,7 +11,7 @@ export type Db = Knex;
 
 export function createDb(file: string): Db {
   if (file !== ':memory:') fs.mkdirSync(path.dirname(file), { recursive: true });
-  return knexFactory({
+  const db = knexFactory({
     client: 'better-sqlite3',
     connection: { filename: file },
     useNullAsDefault: true,
@@ -29,6 +29,31 @@ export function createDb(file: string): Db {
         }
       },
     },
+  });
+  nameStorageFailures(db);
+  return db;
+}
+
+const STORAGE_CODE = /^SQLITE_(FULL|READONLY|IOERR|CANTOPEN)/;
+
+/**
+ * On SQLITE_FULL (and some I/O errors) SQLite rolls the whole transaction back by itself
+ * (sqlite.org/lang_transaction.html, "Response To Errors Within A Transaction"); Knex then runs
+ * its own ROLLBACK, which fails with "no transaction is active", and rejects with that error in
+ * place of the real one. This gives the ROLLBACK's error the code and message of the failure that
+ * caused it, so the answer can name the cause (app.ts, storageError).
+ */
+function nameStorageFailures(db: Knex): void {
+  let last: (Error & { code?: string }) | null = null;
+  db.on('query-error', (err: Error & { code?: string; cause?: unknown }, query: { sql?: string }) => {
+    if (typeof err?.code === 'string' && STORAGE_CODE.test(err.code)) {
+      last = err;
+    } else if (last && /^ROLLBACK/i.test(query?.sql ?? '') && /no transaction is active/.test(err?.message ?? '')) {
+      err.code = last.code;
+      err.message = `${last.message} (SQLite rolled the transaction back)`;
+      err.cause = last;
+      last = null;
+    }
   });
 }
 
