@@ -15,7 +15,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { createDb } from '@/server/db/knex';
 import { DEMO_LAB, DEMO_USERS } from '@/server/seed/demo-lab';
-import { TEST_PASSWORD } from './helpers';
+import { startTestServer, TEST_PASSWORD, type TestServer } from './helpers';
 import { sessionCookie, smallRecipe, smallScenario, waitForStudy } from './work-fixtures';
 
 const ROOT = path.resolve(__dirname, '../..');
@@ -222,4 +222,69 @@ describe('SIGKILL of a real server process', () => {
     }
     expect(await integrity(dbFile)).toBe('ok');
   }, 60_000);
+});
+
+describe('the database refuses writes', () => {
+  let t: TestServer;
+  let analyst: request.Agent;
+  let labPath: string;
+  beforeAll(async () => {
+    t = await startTestServer();
+    analyst = await t.signIn('analyst');
+    labPath = `/api/v1/labs/${t.labId}`;
+  }, 30_000);
+  afterAll(() => t.close());
+
+  const count = async (table: string) => Number((await t.db(table).count({ n: '*' }).first())?.n);
+  const integrityHere = async () => (await t.db.raw('PRAGMA integrity_check')).map((r: { integrity_check: string }) => r.integrity_check).join('; ');
+
+  it('read-only: a clear 503 naming the cause, nothing stored, the file intact', async () => {
+    const before = await count('scenarios');
+    // The server's one connection (pool max 1) is switched to read-only mode (sqlite.org/pragma.html#pragma_query_only).
+    await t.db.raw('PRAGMA query_only = ON');
+    try {
+      const res = await analyst.post(`${labPath}/scenarios`).send({ definition: smallScenario('Read-only attempt') }).expect(503);
+      expect(res.body.error).toMatchObject({ code: 'storage_read_only' });
+      expect(res.body.error.message).toMatch(/read-only/);
+      await analyst.get(`${labPath}/scenarios`).expect(200); // reads still answer
+    } finally {
+      await t.db.raw('PRAGMA query_only = OFF');
+    }
+    expect(await count('scenarios')).toBe(before);
+    expect(await integrityHere()).toBe('ok');
+    await analyst.post(`${labPath}/scenarios`).send({ definition: smallScenario('After read-only') }).expect(201);
+  });
+
+  it('full: a clear 503 naming the cause, the failed write rolled back, the audit chain intact', async () => {
+    const pages = Number((await t.db.raw('PRAGMA page_count'))[0].page_count);
+    // Cap the file at its current size: the next write that needs a new page fails with SQLITE_FULL,
+    // as on a full disk (sqlite.org/pragma.html#pragma_max_page_count).
+    await t.db.raw(`PRAGMA max_page_count = ${pages}`);
+    const created: string[] = [];
+    let refused: request.Response | null = null;
+    try {
+      const description = 'x'.repeat(4000);
+      for (let i = 0; i < 200 && !refused; i++) {
+        const res = await analyst.post(`${labPath}/scenarios`).send({ definition: { ...smallScenario(`Filling ${i}`), description } });
+        if (res.status === 201) created.push(res.body.id);
+        else refused = res;
+      }
+    } finally {
+      await t.db.raw('PRAGMA max_page_count = 1073741823');
+    }
+    expect(refused?.status).toBe(503);
+    expect(refused?.body.error).toMatchObject({ code: 'storage_full' });
+    expect(refused?.body.error.message).toMatch(/full/);
+    // The refused scenario left no row and no version; every stored one is whole.
+    const names = (await t.db('scenarios').select('name')).map((r) => r.name);
+    expect(names.filter((n) => n.startsWith('Filling')).sort()).toEqual(created.map((_, i) => `Filling ${i}`).sort());
+    const unversioned = await t.db('scenarios as s').leftJoin('scenario_versions as v', function () {
+      this.on('v.scenario_id', 's.id').andOn('v.version', 's.latest_version');
+    }).whereNull('v.scenario_id').count({ n: '*' }).first();
+    expect(Number(unversioned?.n)).toBe(0);
+    expect(await integrityHere()).toBe('ok');
+    const auditor = await t.signIn('auditor');
+    expect((await auditor.get(`${labPath}/audit/verify`).expect(200)).body).toMatchObject({ ok: true });
+    await analyst.post(`${labPath}/scenarios`).send({ definition: smallScenario('After full') }).expect(201);
+  });
 });
