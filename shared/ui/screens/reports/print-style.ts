@@ -10,7 +10,9 @@ export const PRINT_CSS = `
   [role="banner"], [role="navigation"], [role="tablist"], [data-print="hide"] { display: none !important; }
   html, body, #root, #root > div, [role="main"], [data-print="sheet"] { height: auto !important; overflow: visible !important; background: #fff !important; }
   [data-print="sheet"] * { overflow: visible !important; }
-  [data-print="keep"] { break-inside: avoid; page-break-inside: avoid; }
+  [data-print="keep"], [role="row"], svg { break-inside: avoid; page-break-inside: avoid; }
+  [data-print="sheet"] [role="button"], [data-print="sheet"] [role="radiogroup"] { display: none !important; }
+  [data-print="sheet"] svg { max-width: 100% !important; height: auto !important; }
   @page { margin: 16mm 14mm; }
 }`;
 

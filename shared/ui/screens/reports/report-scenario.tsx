@@ -31,7 +31,7 @@ function ReportPlot({ plot }: { plot: NonNullable<Scenario['plot']> }) {
 
 export function ReportScenario({ scenario: s }: { scenario: Scenario }) {
   return (
-    <View style={styles.scenario} {...({ dataSet: { print: 'keep' } } as object)}>
+    <View style={styles.scenario}>
       <View style={styles.row}>
         <AppText variant="bodyStrong" style={styles.flex}>{`${s.name} (v${s.version})`}</AppText>
         <StatusBadge tone={s.pass ? 'pass' : 'fail'} label={s.verdict} />
@@ -41,7 +41,7 @@ export function ReportScenario({ scenario: s }: { scenario: Scenario }) {
       <FactRow label="Excitation" text={s.excitation} />
       <FactRow label="Error sources" text={s.errorSources.length ? s.errorSources.join('; ') : 'none'} />
       <FactRow label="Seeds" text={s.seeds} />
-      <View role="table" aria-label={`Criteria of ${s.name}`} style={styles.table}>
+      <View role="table" aria-label={`Criteria of ${s.name}`} style={styles.table} {...({ dataSet: { print: 'keep' } } as object)}>
         <View role="row" style={[styles.tr, styles.th]}>
           <AppText role="columnheader" variant="label" tone="muted" style={styles.flex}>Criterion</AppText>
           <AppText role="columnheader" variant="label" tone="muted" style={styles.num}>Observed</AppText>

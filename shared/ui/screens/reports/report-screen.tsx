@@ -75,8 +75,10 @@ function ReportBody({ content: c, sha256, createdAt }: { content: ReportContent;
 }
 
 const styles = StyleSheet.create({
-  tools: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.lg },
-  sheet: { gap: space.lg },
+  tools: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.lg, width: '100%', maxWidth: 680, alignSelf: 'center' },
+  // Paper width: a printed A4 page (minus margins) holds about 680 CSS px, so plots measured on
+  // screen at this width print whole.
+  sheet: { gap: space.lg, width: '100%', maxWidth: 680, alignSelf: 'center' },
   head: { gap: space.sm },
   cautions: { gap: space.sm },
 });
