@@ -2,7 +2,7 @@
  * Display decimation (shared/ui/plots/decimate.ts). Hand-sized cases with known answers, and an
  * analytic truth: a sampled sine keeps its extremes ±1 after min/max-per-column decimation.
  */
-import { decimateBand, decimateLine, lowerBound, nearestIndex, visibleRange } from '@/shared/ui/plots/decimate';
+import { breakJumps, decimateBand, decimateLine, lowerBound, nearestIndex, visibleRange } from '@/shared/ui/plots/decimate';
 
 const identity = (v: number) => v;
 
@@ -100,5 +100,15 @@ describe('decimateBand', () => {
     const out = decimateBand([1, 2, 3], [0, 0, 0], [1, 2, 3], { domain: [1, 3], toPixel: identity, pixelWidth: 100 });
     expect(out.x).toEqual([1, 2, 3]);
     expect(out.high).toEqual([1, 2, 3]);
+  });
+});
+
+describe('breakJumps', () => {
+  test('a wrapped phase crossing ±180° gets a gap instead of a vertical line', () => {
+    const out = breakJumps({ x: [1, 2, 3, 4], y: [170, 179, -178, -170] }, 180);
+    expect(out.x).toEqual([1, 2, 3, 3, 4]);
+    expect(out.y.slice(0, 2)).toEqual([170, 179]);
+    expect(Number.isNaN(out.y[2])).toBe(true);
+    expect(out.y.slice(3)).toEqual([-178, -170]);
   });
 });

@@ -75,6 +75,8 @@ describe('magnitude and bands', () => {
     const b = bandIn([0.5, 1], [2, 10], 'db');
     expect(b.low[0]).toBeCloseTo(-6.0206, 4);
     expect(b.high[1]).toBeCloseTo(20, 12);
+    // A band reaching zero runs 120 dB below its upper limit (to the bottom of any plot).
+    expect(bandIn([0], [10], 'db').low[0]).toBeCloseTo(20 - 120, 9);
     const p = phaseBand([-90], [Math.PI / 36]);
     expect(p.low[0]).toBeCloseTo(-95, 12);
     expect(p.high[0]).toBeCloseTo(-85, 12);

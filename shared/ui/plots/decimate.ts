@@ -145,3 +145,17 @@ function push(out: XY, x: number, y: number) {
   out.x.push(x);
   out.y.push(y);
 }
+
+/**
+ * Inserts a gap wherever neighbouring finite values differ by more than `limit`, so a wrapped
+ * phase crossing ±180° is not drawn as a vertical line across the plot. Returns a new series.
+ */
+export function breakJumps(line: XY, limit: number): XY {
+  const out: XY = { x: [], y: [] };
+  for (let i = 0; i < line.x.length; i++) {
+    const previous = out.y[out.y.length - 1];
+    if (i > 0 && Number.isFinite(previous) && Number.isFinite(line.y[i]) && Math.abs(line.y[i] - previous) > limit) push(out, line.x[i], NaN);
+    push(out, line.x[i], line.y[i]);
+  }
+  return out;
+}

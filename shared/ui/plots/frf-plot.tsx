@@ -79,7 +79,7 @@ export function FrfPlot(props: FrfPlotProps) {
       const mag = magnitudeIn(c.frf, magnitude);
       const ph = phaseIn(c.frf, phase);
       magSeries.push({ id: c.id, label: c.label, color: c.color, dashed: c.dashed, x: c.frequenciesHz, y: mag });
-      phaseSeries.push({ id: c.id, label: c.label, color: c.color, dashed: c.dashed, x: c.frequenciesHz, y: ph });
+      phaseSeries.push({ id: c.id, label: c.label, color: c.color, dashed: c.dashed, x: c.frequenciesHz, y: ph, breakAbove: phase === 'wrapped' ? 180 : undefined });
       if (c.confidence) {
         const b = bandIn(c.confidence.magnitudeLow, c.confidence.magnitudeHigh, magnitude);
         magBands.push({ id: `${c.id}-band`, label: `${c.label} 95 % band`, color: c.color, x: c.frequenciesHz, low: b.low, high: b.high });

@@ -71,10 +71,15 @@ export function phaseIn(h: ComplexLike, mode: PhaseMode): Float64Array {
   return mode === 'wrapped' ? wrapped : unwrapDeg(wrapped);
 }
 
-/** A magnitude band (linear |H| limits) in the chosen scale. */
+/**
+ * A magnitude band (linear |H| limits) in the chosen scale. A lower limit of 0 (the band reaches
+ * zero) becomes high·1e-6 (120 dB down) in dB, so the fill runs to the bottom of the plot instead
+ * of leaving a hole.
+ */
 export function bandIn(low: ArrayLike<number>, high: ArrayLike<number>, scale: MagnitudeScale) {
   if (scale === 'linear') return { low: Float64Array.from(low), high: Float64Array.from(high) };
-  return { low: toDb(low), high: toDb(high) };
+  const floor = Float64Array.from(low, (v, i) => (v > 0 ? v : high[i] * 1e-6));
+  return { low: toDb(floor), high: toDb(high) };
 }
 
 /** Phase band: the curve's phase ± a half width given in radians, degrees. */

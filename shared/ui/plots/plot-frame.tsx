@@ -9,7 +9,7 @@ import { StyleSheet, View, type PointerEvent as RNPointerEvent } from 'react-nat
 import Svg, { Circle, G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 import { area as d3Area, line as d3Line } from 'd3-shape';
 import { colors, fontFamily, radius, stroke, typeScale } from '@/shared/ui/theme';
-import { decimateBand, decimateLine, nearestIndex } from './decimate';
+import { breakJumps, decimateBand, decimateLine, nearestIndex } from './decimate';
 import { yExtent } from './domain';
 import { axisTicks, formatPlain, makeScale, tickCountFor, type AxisScale } from './ticks';
 import type { PlotAxis, PlotBand, PlotRule, PlotSeries } from './types';
@@ -186,7 +186,8 @@ const FrameLayers = memo(function FrameLayers({ scales, x, y, series, bands, rul
           <Line key={r.id} x1={inner.left} x2={inner.right} y1={scales.y(r.value)} y2={scales.y(r.value)} stroke={r.color} strokeWidth={stroke.focus} strokeDasharray="2 3" />
         ))}
         {series.map((s) => {
-          const d = decimateLine(s.x, s.y, options);
+          const decimated = decimateLine(s.x, s.y, options);
+          const d = s.breakAbove === undefined ? decimated : breakJumps(decimated, s.breakAbove);
           if (s.style === 'points') {
             return (
               <G key={s.id}>

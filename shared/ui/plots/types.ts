@@ -15,6 +15,8 @@ export interface PlotSeries {
   role?: 'curve' | 'limit';
   /** Unit of y for the read-out; defaults to the y axis unit. */
   unit?: string;
+  /** Break the line where neighbouring drawn values jump by more than this (a wrapped phase: 180). */
+  breakAbove?: number;
   /** Left out of the crosshair read-out (e.g. a tolerance line that equals a constant). */
   noReadout?: boolean;
 }

@@ -8,6 +8,7 @@ import { useCurrentLab } from '@/shared/ui/lab-context';
 import { useWideLayout } from '@/shared/ui/navigation/use-wide-layout';
 import { space } from '@/shared/ui/theme';
 import { PageHead } from '../kit/panel';
+import { WhatIfLink } from '../what-if/what-if-link';
 import { Column } from '../kit/two-pane';
 import { DueStandards, RecentResults, RunningStudies, WaitingReviews } from './home-sections';
 
@@ -23,7 +24,7 @@ export function HomeScreen() {
   const name = session.status === 'signed-in' ? firstName(session.me.user.displayName) : '';
   return (
     <Column title="Bench">
-      <PageHead title="Bench" eyebrow={name ? `Welcome, ${name}` : 'Welcome'} intro={lab ? `${lab.labName}: your work in progress, and what is waiting for you.` : 'You are not a member of any lab yet.'} />
+      <PageHead title="Bench" eyebrow={name ? `Welcome, ${name}` : 'Welcome'} intro={lab ? `${lab.labName}: your work in progress, and what is waiting for you.` : 'You are not a member of any lab yet.'} actions={<WhatIfLink />} />
       <View style={[styles.grid, wide && styles.gridWide]}>
         <View style={[styles.col, wide && styles.colWide]}>
           <RunningStudies labId={labId} canStart={lab?.role === 'analyst'} />
