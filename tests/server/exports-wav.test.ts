@@ -47,10 +47,11 @@ function readWav(buf: Buffer) {
   };
 }
 
-const binary = (res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) => {
+const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => void) => {
+  const stream = res as unknown as NodeJS.ReadableStream;
   const parts: Buffer[] = [];
-  res.on('data', (c: Buffer) => parts.push(c));
-  res.on('end', () => cb(null, Buffer.concat(parts)));
+  stream.on('data', (c: Buffer) => parts.push(c));
+  stream.on('end', () => cb(null, Buffer.concat(parts)));
 };
 
 it('writes the engine samples as two float32 channels with the scaling stated', async () => {
