@@ -1,8 +1,8 @@
 /**
  * CSV in and out for the CLI. Reading: a header row, then one numeric row per sample or line
- * (comma separated; blank lines skipped), parsed with papaparse. Writing: numbers in the shortest
- * text that reads back to the same double (`String(x)`, round-trip exact, up to 17 significant
- * digits); non-finite values are written as `NaN`, `Infinity` or `-Infinity`.
+ * (comma separated; blank lines skipped, and rows of empty cells at the end), parsed with
+ * papaparse. Writing: numbers in the shortest text that reads back to the same double
+ * (`String(x)`, round-trip exact, up to 17 significant digits); non-finite values are written as `NaN`, `Infinity` or `-Infinity`.
  */
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
@@ -34,16 +34,22 @@ const NON_FINITE = new Set(['NaN', 'Infinity', '-Infinity']);
 
 /** Parses CSV text with a header row into numeric columns; `where` names the source in errors. */
 export function parseNumericCsv(text: string, where: string, allowNonFinite = false): NumericTable {
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: 'greedy' });
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { skipEmptyLines: false });
   const fatal = parsed.errors.find((e) => e.type !== 'Delimiter');
   if (fatal) throw new CliInputError(`${where}: CSV error on row ${(fatal.row ?? 0) + 1}: ${fatal.message}`);
-  const rows = parsed.data;
+  // Skip blank lines, and rows of empty cells (",,") only at the end (spreadsheets write them):
+  // inside the data such a row is a missing sample, refused below, not dropped as papaparse's
+  // 'greedy' mode would.
+  const rows = parsed.data.filter((row) => !(row.length === 1 && row[0]!.trim() === ''));
+  while (rows.length > 0 && rows[rows.length - 1]!.every((cell) => cell.trim() === '')) rows.pop();
   if (rows.length < 2) throw new CliInputError(`${where}: needs a header row and at least one data row`);
   const columns = rows[0]!.map((name) => name.trim());
   const seen = new Set<string>();
   for (const name of columns) {
     if (name === '') throw new CliInputError(`${where}: empty column name in the header row`);
     if (seen.has(name)) throw new CliInputError(`${where}: column "${name}" appears twice in the header row`);
+    // A file without its header would otherwise lose its first sample as column names.
+    if (!Number.isNaN(Number(name))) throw new CliInputError(`${where}: row 1 must be a header of column names, found the number ${name}`);
     seen.add(name);
   }
   const rowCount = rows.length - 1;
