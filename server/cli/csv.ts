@@ -2,7 +2,8 @@
  * CSV in and out for the CLI. Reading: a header row, then one numeric row per sample or line
  * (comma separated; blank lines skipped, and rows of empty cells at the end), parsed with
  * papaparse. Writing: numbers in the shortest text that reads back to the same double
- * (`String(x)`, round-trip exact, up to 17 significant digits); non-finite values are written as `NaN`, `Infinity` or `-Infinity`.
+ * (`String(x)`, round-trip exact, up to 17 significant digits); non-finite values are written as
+ * `NaN`, `Infinity` or `-Infinity`.
  */
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
