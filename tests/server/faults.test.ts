@@ -288,3 +288,34 @@ describe('the database refuses writes', () => {
     await analyst.post(`${labPath}/scenarios`).send({ definition: smallScenario('After full') }).expect(201);
   });
 });
+
+describe('a run that fails in its worker thread', () => {
+  let t: TestServer;
+  afterAll(() => t?.close());
+
+  it('fails those runs, not the server: the other scenario finishes and the pool carries on', async () => {
+    t = await startTestServer({ STUDY_WORKERS: '1' });
+    const analyst = await t.signIn('analyst');
+    const lab = `/api/v1/labs/${t.labId}`;
+    // 512 samples against blocks of 1024: the engine's recipe resolver throws in the worker
+    // (shared/engine/recipe.ts: "needs 1024 samples per block, more than the record's 512").
+    const short = (await analyst.post(`${lab}/scenarios`).send({ definition: { ...smallScenario('Too short'), acquisition: { sampleRateHz: 512, durationS: 1 } } }).expect(201)).body.id;
+    const ok = (await analyst.post(`${lab}/scenarios`).send({ definition: smallScenario('Long enough') }).expect(201)).body.id;
+    const recipe = (await analyst.post(`${lab}/recipes`).send({ definition: { ...smallRecipe('Blocks of 1024'), blockLength: 1024 } }).expect(201)).body.id;
+    const start = await analyst.post(`${lab}/studies`).send({ name: 'One scenario fails', recipe: { id: recipe }, scenarios: [{ id: short }, { id: ok }], seeds: 2, baseSeed: 3 });
+    expect(start.status).toBe(202);
+    const ended = await waitForStudy(analyst, `${lab}/studies/${start.body.id}`);
+    const runs = await t.db('runs').where({ study_id: start.body.id }).orderBy(['position', 'seed_index']).select('position', 'status', 'error');
+    expect(runs.map((r) => [r.position, r.status])).toEqual([
+      [0, 'failed'],
+      [0, 'failed'],
+      [1, 'finished'],
+      [1, 'finished'],
+    ]);
+    expect(runs[0]!.error).toMatch(/1024/);
+    expect(ended).toMatchObject({ progress: { done: 4, failed: 2, total: 4 } });
+    // The server and its pool carry on: another study on the same server finishes.
+    const next = (await analyst.post(`${lab}/studies`).send({ name: 'After the failure', recipe: { id: recipe }, scenarios: [{ id: ok }], seeds: 2, baseSeed: 3 }).expect(202)).body.id;
+    expect((await waitForStudy(analyst, `${lab}/studies/${next}`)).status).toBe('finished');
+  }, 60_000);
+});
