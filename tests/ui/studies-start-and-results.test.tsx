@@ -16,6 +16,9 @@ const inputs = {
   [`GET ${lab('/scenarios')}`]: ok(page([summary('sc-burst', 'Arm, burst random excitation'), summary('sc-delay', 'Arm, delay between the channels')])),
 };
 
+// Two tests wait real time (retries, polling); the default 5 s is tight when the project runs at once.
+jest.setTimeout(20_000);
+
 beforeEach(() => {
   localStorage.clear();
   setWindowWidth(390);

@@ -20,6 +20,9 @@ jest.mock('expo-document-picker', () => ({
 
 const recipes = page([{ id: 'recipe-arm', labId: 'lab-harbor-ridge', name: 'Arm shaker, burst random', description: '', latestVersion: 2, createdBy: { id: 'u', displayName: 'T' }, updatedBy: { id: 'u', displayName: 'T' }, createdAt: 1, updatedAt: 1 }]);
 
+// Three renders with a file read each; slower than the default 5 s when the whole project runs at once.
+jest.setTimeout(20_000);
+
 beforeEach(() => {
   localStorage.clear();
   setWindowWidth(390);
@@ -55,7 +58,8 @@ test('time data: the picked file’s columns are offered, a recipe is required, 
   const [call] = api.called('POST', lab('/uploads'));
   expect(call).toBeTruthy();
   const sent = (globalThis.fetch as jest.Mock).mock.calls.find(([url, init]) => String(url) === lab('/uploads') && init?.method === 'POST')![1].body as FormData;
-  expect(Object.fromEntries([...sent.entries()].filter(([k]) => k !== 'file'))).toEqual({ kind: 'time-data', recipeId: 'recipe-arm', inputColumn: 'force_N', outputColumn: 'accel', timeColumn: 'time_s' });
+  const fields = ['kind', 'recipeId', 'inputColumn', 'outputColumn', 'timeColumn', 'sampleRateHz'].map((k) => [k, sent.get(k)]);
+  expect(Object.fromEntries(fields)).toEqual({ kind: 'time-data', recipeId: 'recipe-arm', inputColumn: 'force_N', outputColumn: 'accel', timeColumn: 'time_s', sampleRateHz: null });
   expect((sent.get('file') as File).name).toBe('hammer.csv');
 });
 
