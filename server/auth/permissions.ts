@@ -156,7 +156,7 @@ export function labRoute(
 ): void {
   if (!spec.path.startsWith('/labs/:labId')) throw new Error(`labRoute ${spec.path} must start with /labs/:labId`);
   register({ tag: tagOf(spec.path), ...spec });
-  router[spec.method](spec.path, requireLabRole(db, spec.action), ...handlers);
+  router[spec.method](spec.path, requireLabRole(db, spec.action), ...jsonOnly(spec), ...handlers);
 }
 
 /** Registers and mounts a route outside a lab: 'public', or 'signed-in' (401 without a session). */
@@ -166,8 +166,26 @@ export function openRoute(
   ...handlers: RequestHandler[]
 ): void {
   register({ tag: tagOf(spec.path), ...spec });
-  if (spec.action === 'signed-in') router[spec.method](spec.path, requireUser, ...handlers);
-  else router[spec.method](spec.path, ...handlers);
+  if (spec.action === 'signed-in') router[spec.method](spec.path, requireUser, ...jsonOnly(spec), ...handlers);
+  else router[spec.method](spec.path, ...jsonOnly(spec), ...handlers);
+}
+
+/**
+ * A route with a JSON body schema refuses any other body with 415: express.json leaves a text/plain
+ * or multipart body unread, and the handler would otherwise see an empty body (a schema of optional
+ * fields then accepts it as a request that changes nothing, or names every field as missing).
+ */
+function jsonOnly(spec: RouteSpec): RequestHandler[] {
+  if (!spec.body) return [];
+  return [
+    (req: Request, _res: Response, next: NextFunction) => {
+      const hasBody = req.headers['transfer-encoding'] !== undefined || Number(req.headers['content-length'] ?? 0) > 0;
+      if (hasBody && !req.is('application/json')) {
+        throw new AppError(415, 'unsupported_media_type', 'Send this request as JSON (Content-Type: application/json).');
+      }
+      next();
+    },
+  ];
 }
 
 function tagOf(path: string): string {
