@@ -31,7 +31,7 @@ function oneCsvFile(dataDir: string): RequestHandler {
     }),
     limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 20, fieldSize: 10_000 },
     fileFilter: (_req, file, cb) => {
-      if (file.fieldname !== 'file') return cb(new AppError(400, 'invalid_request', `Unexpected file field "${file.fieldname}"; send the CSV as "file".`));
+      if (file.fieldname !== 'file') return cb(new AppError(400, 'invalid_request', `file: unexpected file field "${file.fieldname}"; send the CSV as "file".`, { fields: [{ path: 'file', message: `unexpected file field "${file.fieldname}"` }] }));
       const csvLike = /\.(csv|txt)$/i.test(file.originalname) || /^text\/|csv|excel|octet-stream/.test(file.mimetype);
       if (!csvLike) return cb(new AppError(400, 'bad_file', `"${file.originalname}" (${file.mimetype}) is not a CSV file.`));
       cb(null, true);

@@ -95,7 +95,7 @@ export async function storeUpload(
   file: IncomingFile | undefined,
 ) {
   try {
-    if (!file) throw new AppError(400, 'invalid_request', 'file: attach the CSV file in the form field "file"');
+    if (!file) throw new AppError(400, 'invalid_request', 'file: attach the CSV file in the form field "file"', { fields: [{ path: 'file', message: 'attach the CSV file in the form field "file"' }] });
     const fields = uploadFieldsFrom(rawFields);
     const bytes = fs.readFileSync(file.path);
     const { result, ref, summary } = await analyse(db, labId, fields, bytes);

@@ -44,7 +44,8 @@ function infoChunk(comment: string): Buffer {
 
 export function encodeFloatWav(sampleRateHz: number, channels: WavChannel[]): WavFile {
   if (!Number.isInteger(sampleRateHz) || sampleRateHz < 1 || sampleRateHz > 2 ** 31 - 1) {
-    throw new AppError(400, 'invalid_request', `sampleRateHz=${sampleRateHz}: a WAV file holds a whole number of samples per second; use the CSV export`);
+    const message = `sampleRateHz=${sampleRateHz}: a WAV file holds a whole number of samples per second; use the CSV export`;
+    throw new AppError(400, 'invalid_request', message, { fields: [{ path: 'sampleRateHz', message }] });
   }
   const frames = channels[0]?.samples.length ?? 0;
   if (channels.some((c) => c.samples.length !== frames)) throw new Error('WAV channels differ in length');
