@@ -11,9 +11,9 @@
 import fc from 'fast-check';
 import type { Role } from '@/shared/api/auth';
 import { hashPassword } from '@/server/auth/password';
-import { PERMISSIONS, routeRegistry, type RouteSpec } from '@/server/auth/permissions';
+import { routeRegistry, type RouteSpec } from '@/server/auth/permissions';
 import { addMembership, insertUser } from '@/server/db/users';
-import { buildRegistry, countChanges, errorShapeProblems, FUZZ_SEED, fromJsonSchema, tableCounts, toJson, VOLATILE_TABLES } from './fuzz-support';
+import { buildRegistry, countChanges, errorShapeProblems, FUZZ_SEED, fromJsonSchema, pathFor, roleFor, tableCounts, toJson, VOLATILE_TABLES } from './fuzz-support';
 import { startTestServer, type TestServer } from './helpers';
 
 const registry = buildRegistry();
@@ -43,19 +43,9 @@ afterAll(async () => {
   await registry.destroy();
 });
 
-function concretePath(spec: RouteSpec): string {
-  const kind = /\/labs\/:labId\/(systems|scenarios|recipes)\/:id/.exec(spec.path)?.[1];
-  return `/api/v1${spec.path
-    .replace(':labId', t.labId)
-    .replace(':userId', ids.userId!)
-    .replace(':id', kind ? ids[kind]! : 'fuzz-no-such-id')
-    .replace(/:[A-Za-z0-9_]+/g, 'fuzz-no-such-token')}`;
-}
-
 function agentFor(spec: RouteSpec) {
-  if (spec.action === 'public') return t.http;
-  if (spec.action === 'signed-in') return agents.auditor;
-  return agents[(PERMISSIONS[spec.action] as readonly Role[])[0]!];
+  const role = roleFor(spec);
+  return role ? agents[role] : t.http;
 }
 
 const withSchemas = [...routeRegistry.values()].filter((r) => r.body || r.query);
@@ -72,7 +62,7 @@ describe('every request schema under generated bad input', () => {
       fc.asyncProperty(arbitrary, async (value) => {
         cases++;
         const before = await tableCounts(t.db);
-        const req = agentFor(spec)[spec.method](concretePath(spec)).timeout(15_000);
+        const req = agentFor(spec)[spec.method](pathFor(spec, t.labId, ids)).timeout(15_000);
         let res;
         if (part === 'body') {
           const text = JSON.stringify(value) ?? 'null';

@@ -6,6 +6,8 @@
  */
 import fc from 'fast-check';
 import { z } from 'zod';
+import type { Role } from '@/shared/api/auth';
+import { PERMISSIONS, type RouteSpec } from '@/server/auth/permissions';
 import type { Db } from '@/server/db/knex';
 
 type Json = Record<string, unknown>;
@@ -188,4 +190,24 @@ export function buildRegistry(): { destroy(): Promise<void> } {
     version: 'test',
   } as import('@/server/app').AppDeps);
   return { destroy: () => db.destroy() };
+}
+
+/** The role a route is called with: the first the permission table allows (public: none). */
+export function roleFor(spec: RouteSpec): Role | null {
+  if (spec.action === 'public') return null;
+  if (spec.action === 'signed-in') return 'auditor';
+  return (PERMISSIONS[spec.action] as readonly Role[])[0]!;
+}
+
+/**
+ * A concrete path of a route: the lab, real ids where given (`ids.systems` for /systems/:id, …,
+ * `ids.userId`), and ids that do not exist elsewhere.
+ */
+export function pathFor(spec: RouteSpec, labId: string, ids: Record<string, string>): string {
+  const kind = /\/labs\/:labId\/(systems|scenarios|recipes)\/:id/.exec(spec.path)?.[1];
+  return `/api/v1${spec.path
+    .replace(':labId', labId)
+    .replace(':userId', ids.userId ?? 'fuzz-no-such-user')
+    .replace(':id', (kind && ids[kind]) || 'fuzz-no-such-id')
+    .replace(/:[A-Za-z0-9_]+/g, 'fuzz-no-such-token')}`;
 }
