@@ -36,6 +36,9 @@ export function SignInScreen() {
             Sign in to your lab
           </AppText>
           <SignInForm />
+          <Link href="/reset-password" style={styles.link} testID="forgot-password-link">
+            Forgot your password?
+          </Link>
         </View>
 
         <AppText variant="small" tone="muted" style={styles.caution}>
