@@ -54,6 +54,8 @@ function journey(viewport: ViewportName) {
         const storedSystem = (await (await page.request.get(`/api/v1/labs/${lab}/systems/${systemId}`)).json()) as { name: string; definition: { naturalFrequencyHz: number } };
         expect(storedSystem.name === systemName && storedSystem.definition.naturalFrequencyHz === 46, `the system was not stored as entered: ${JSON.stringify(storedSystem)}`);
         await screenshot(page, `modelling-system-${viewport}`);
+        await page.getByTestId('system-facts').scrollIntoViewIfNeeded();
+        await screenshot(page, `modelling-system-facts-${viewport}`);
 
         // A scenario on that system (random 10–150 Hz at 512 Hz, noise on the response).
         await page.goto('/scenarios/new');
@@ -72,9 +74,13 @@ function journey(viewport: ViewportName) {
         expect(storedScenario.definition.errors.outputNoise?.snrDb === 20, 'the scenario lost its response-channel noise');
         await page.getByTestId('scenario-signals-force').waitFor({ timeout: TIMEOUT });
         await screenshot(page, `modelling-scenario-${viewport}`);
+        await page.getByTestId('scenario-signals').scrollIntoViewIfNeeded();
+        await screenshot(page, `modelling-scenario-signals-${viewport}`);
 
         // The what-if bench, from the Bench, on that scenario.
         await page.goto('/');
+        await page.getByTestId('what-if-link').waitFor({ timeout: TIMEOUT });
+        await screenshot(page, `modelling-bench-${viewport}`);
         await page.getByTestId('what-if-link').click();
         await page.waitForURL(/\/bench\/what-if$/, { timeout: TIMEOUT });
         await waitUpToDate(page);

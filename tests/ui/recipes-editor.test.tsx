@@ -14,6 +14,8 @@ import { press, typeInto } from './support/form';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
 jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
+// Whole screens with the engine at work in jsdom; the machine is shared, so allow for a slow run.
+jest.setTimeout(30_000);
 
 const lab = '/api/v1/labs/lab-harbor-ridge';
 const page = (kind: string, limit = 20) => `${lab}/${kind}?limit=${limit}&offset=0&sort=updatedAt&order=desc`;
@@ -135,7 +137,16 @@ describe('recipe editor', () => {
     await renderApp('/recipes/rcp-survey');
     const rows = within(screen.getByTestId('change-table')).getAllByRole('row').slice(1).map((r) => r.textContent);
     expect(rows).toEqual(['windowChangedhannflattop', 'tolerances.magnitudeDbChanged10.5']);
+    // With unsaved changes in the editor, loading an older version asks first.
+    await typeInto('Overlap', '0.75');
     await press('button', 'Load v1 into the editor');
+    const dialog = within(screen.getByRole('dialog', { name: 'Replace your changes with v1?' }));
+    expect(screen.getByRole('radio', { name: 'Flat-top' }).getAttribute('aria-checked')).toBe('true');
+    await act(async () => {
+      fireEvent.click(dialog.getByRole('button', { name: 'Load v1' }));
+    });
+    await settle();
     expect(screen.getByRole('radio', { name: 'Hann' }).getAttribute('aria-checked')).toBe('true');
+    expect((screen.getByLabelText('Overlap') as HTMLInputElement).value).toBe('0.5');
   });
 });

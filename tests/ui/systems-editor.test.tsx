@@ -13,6 +13,8 @@ import { press, typeInto } from './support/form';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
 jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
+// Whole screens with the engine at work in jsdom; the machine is shared, so allow for a slow run.
+jest.setTimeout(30_000);
 
 const lab = '/api/v1/labs/lab-harbor-ridge';
 const listPath = `${lab}/systems?limit=20&offset=0&sort=updatedAt&order=desc`;

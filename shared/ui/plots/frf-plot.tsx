@@ -110,7 +110,10 @@ export function FrfPlot(props: FrfPlotProps) {
   }, [curves, magnitude, phase, tolerance]);
 
   const legend: LegendEntry[] = [
-    ...curves.map((c): LegendEntry => ({ id: c.id, label: c.label, color: c.color, kind: c.dashed ? 'dashed' : 'line' })),
+    // Drawing order is the caller's; the legend reads the dashed (exact) curve first, then by name.
+    ...[...curves]
+      .sort((a, b) => Number(!!b.dashed) - Number(!!a.dashed) || a.label.localeCompare(b.label))
+      .map((c): LegendEntry => ({ id: c.id, label: c.label, color: c.color, kind: c.dashed ? 'dashed' : 'line' })),
     ...drawn.magBands.map((b): LegendEntry => ({ id: b.id, label: b.label, color: b.color, kind: 'band' })),
     ...(tolerance ? [{ id: 'tolerance', label: `Tolerance ±${tolerance.db} dB`, color: curveColors.tolerance, kind: 'limit' as const }] : []),
   ];
@@ -127,6 +130,7 @@ export function FrfPlot(props: FrfPlotProps) {
       const text = `${formatWithUnit(m, magnitude === 'db' ? 'dB' : unit)}${showPhase ? `  ${formatReadout(p, 4)}°` : ''}`;
       return { id: c.id, label: c.label, color: c.color, dashed: c.dashed, text };
     });
+    rows.sort((a, b) => Number(!!b.dashed) - Number(!!a.dashed) || a.label.localeCompare(b.label));
     return { heading: { label: 'Frequency', text: formatWithUnit(i0 >= 0 ? first[i0] : x, 'Hz') }, rows };
   }, [view.cursorX, curves, drawn, magnitude, unit, showPhase]);
 

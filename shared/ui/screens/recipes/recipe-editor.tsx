@@ -94,7 +94,7 @@ function RecipeForm({ labId, record, canWrite }: { labId: string; record: Recipe
           noteField={<TextInputField control={control} name="note" label="What this version changes" />}
         />
         {record ? (
-          <VersionHistory versions={versions} useVersion={useVersion} onLoad={(_, d) => setValue('definition', d as Recipe, { shouldDirty: true })} />
+          <VersionHistory dirty={form.formState.isDirty} versions={versions} useVersion={useVersion} onLoad={(_, d) => setValue('definition', d as Recipe, { shouldDirty: true })} />
         ) : null}
       </View>
     </FormProvider>

@@ -116,7 +116,7 @@ function ScenarioForm({ labId, record, canWrite }: { labId: string; record: Scen
           noteField={<TextInputField control={control} name="note" label="What this version changes" />}
         />
         {record ? (
-          <VersionHistory versions={versions} useVersion={useVersion} onLoad={(_, d) => setValue('definition', d as ScenarioInput, { shouldDirty: true })} />
+          <VersionHistory dirty={form.formState.isDirty} versions={versions} useVersion={useVersion} onLoad={(_, d) => setValue('definition', d as ScenarioInput, { shouldDirty: true })} />
         ) : null}
       </View>
     </FormProvider>

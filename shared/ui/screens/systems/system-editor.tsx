@@ -111,6 +111,7 @@ function SystemForm({ labId, record, canWrite }: { labId: string; record: System
         />
         {record ? (
           <VersionHistory
+            dirty={form.formState.isDirty}
             versions={versions}
             useVersion={useVersion}
             onLoad={(_, definition) => setValue('definition', definition as SystemSpec, { shouldDirty: true })}

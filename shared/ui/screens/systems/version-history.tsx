@@ -8,6 +8,7 @@ import type { UseQueryResult } from '@tanstack/react-query';
 import type { VersionInfo } from '@/shared/api/work';
 import { AppText, Button } from '@/shared/ui/components';
 import { SelectField } from '@/shared/ui/screens/kit/choice-field';
+import { ConfirmDialog } from '@/shared/ui/screens/kit/confirm-dialog';
 import { formatDateTime } from '@/shared/ui/screens/kit/figure';
 import { Panel } from '@/shared/ui/screens/kit/panel';
 import { QueryView } from '@/shared/ui/screens/kit/query-view';
@@ -19,12 +20,15 @@ interface VersionHistoryProps {
   /** Loads one version's definition (react-query hook of the resource). */
   useVersion: (version: number | null) => UseQueryResult<{ definition: unknown }>;
   onLoad?: (version: number, definition: unknown) => void;
+  /** The editor holds unsaved changes: loading a version asks first. */
+  dirty?: boolean;
 }
 
 const kindWords: Record<FieldChange['kind'], string> = { added: 'Added', removed: 'Removed', changed: 'Changed' };
 
-export function VersionHistory({ versions, useVersion, onLoad }: VersionHistoryProps) {
+export function VersionHistory({ versions, useVersion, onLoad, dirty = false }: VersionHistoryProps) {
   const [from, setFrom] = useState<number | null>(null);
+  const [asking, setAsking] = useState(false);
   const [to, setTo] = useState<number | null>(null);
   const list = versions.data;
   useEffect(() => {
@@ -64,8 +68,24 @@ export function VersionHistory({ versions, useVersion, onLoad }: VersionHistoryP
                 </View>
                 <ChangeTable changes={changes} from={from} to={to} />
                 {onLoad && a.data && from !== null && from !== items[0].version ? (
-                  <Button label={`Load v${from} into the editor`} variant="secondary" compact onPress={() => onLoad(from, a.data!.definition)} />
+                  <Button
+                    label={`Load v${from} into the editor`}
+                    variant="secondary"
+                    compact
+                    onPress={() => (dirty ? setAsking(true) : onLoad(from, a.data!.definition))}
+                  />
                 ) : null}
+                <ConfirmDialog
+                  visible={asking}
+                  title={`Replace your changes with v${from}?`}
+                  body="The editor holds changes that are not saved. Loading this version replaces them; saving afterwards makes a new version, and every stored version stays."
+                  confirmLabel={`Load v${from}`}
+                  onCancel={() => setAsking(false)}
+                  onConfirm={() => {
+                    setAsking(false);
+                    if (onLoad && a.data && from !== null) onLoad(from, a.data.definition);
+                  }}
+                />
               </View>
             ) : null}
           </View>

@@ -9,7 +9,7 @@ export const WHAT_IF_HREF = '/bench/what-if';
 export function WhatIfLink() {
   return (
     <Link href={WHAT_IF_HREF as never} asChild>
-      <Pressable role="link" accessibilityLabel="Open the what-if bench" testID="what-if-link">
+      <Pressable role="link" accessibilityLabel="Open the what-if bench" testID="what-if-link" style={styles.outer}>
         {({ hovered, pressed }: { hovered?: boolean; pressed: boolean }) => (
           <View style={[styles.link, (hovered || pressed) && styles.hover]}>
             <PlumbMark height={28} />
@@ -30,6 +30,8 @@ export function WhatIfLink() {
 }
 
 const styles = StyleSheet.create({
+  // The heading's action row wraps: the link takes a line of its own and its text wraps inside.
+  outer: { width: '100%', maxWidth: 560 },
   link: {
     flexDirection: 'row',
     alignItems: 'center',
