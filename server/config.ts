@@ -30,6 +30,9 @@ const envSchema = z.object({
   DEMO_SEED: bool.default(true),
   DEMO_PASSWORD: z.string().min(12, 'must be at least 12 characters').default('plumb-line-demo-2026'),
   STUDY_WORKERS: z.coerce.number().int().min(1).max(16).default(2),
+  // Heap limit of each study worker thread, MB; unset = V8's default. Below about 96 MB a worker
+  // that hits it can abort the whole process instead of failing its run (docs/reliability.md).
+  STUDY_WORKER_HEAP_MB: z.coerce.number().int().min(96).max(65536).optional(),
   WEB_DIR: z.string().min(1).default('dist/web'),
 });
 
@@ -50,6 +53,8 @@ export interface Config {
   };
   demo: { seed: boolean; password: string };
   studyWorkers: number;
+  /** Old-generation heap limit of each study worker thread, MB; null = V8's default. */
+  studyWorkerHeapMb: number | null;
   webDir: string;
 }
 
@@ -82,6 +87,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     mail: { from: e.MAIL_FROM, smtp, fakePort: e.FAKE_SMTP_PORT },
     demo: { seed: e.DEMO_SEED, password: e.DEMO_PASSWORD },
     studyWorkers: e.STUDY_WORKERS,
+    studyWorkerHeapMb: e.STUDY_WORKER_HEAP_MB ?? null,
     webDir: path.resolve(cwd, e.WEB_DIR),
   };
 }

@@ -40,7 +40,7 @@ export async function startServer(config: Config, logger = createLogger(config.l
   const mailer = createMailer({ db, logger }, smtp, config.mail.from);
 
   const auth = createAuth(db, { idleHours: config.session.idleHours, secure: config.publicUrl.startsWith('https:') });
-  const studies = createStudyScheduler({ db, logger, mailer, executor: createPoolExecutor(config.studyWorkers) });
+  const studies = createStudyScheduler({ db, logger, mailer, executor: createPoolExecutor(config.studyWorkers, config.studyWorkerHeapMb) });
   const app = createApp({ config, db, auth, logger, mailer, version: APP_VERSION, studyQueue: studies });
   const server = http.createServer(app);
   await new Promise<void>((resolve, reject) => {

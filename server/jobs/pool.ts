@@ -11,12 +11,17 @@ import type { RunExecutor, RunOutcome } from './run-task';
 
 export const WORKER_ENTRY = path.join(__dirname, 'study-worker.js');
 
-export function createPoolExecutor(threads: number): RunExecutor {
+/**
+ * `heapMb` caps each thread's old generation: a run that needs more is terminated with
+ * ERR_WORKER_OUT_OF_MEMORY, which the runner stores as that run's failure; the server carries on.
+ */
+export function createPoolExecutor(threads: number, heapMb: number | null = null): RunExecutor {
   const pool = new Piscina({
     filename: WORKER_ENTRY,
     minThreads: 0,
     maxThreads: threads,
     idleTimeout: 30_000,
+    ...(heapMb ? { resourceLimits: { maxOldGenerationSizeMb: heapMb } } : {}),
   });
   return {
     capacity: threads,
