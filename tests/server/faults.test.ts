@@ -319,3 +319,31 @@ describe('a run that fails in its worker thread', () => {
     expect((await waitForStudy(analyst, `${lab}/studies/${next}`)).status).toBe('finished');
   }, 60_000);
 });
+
+describe('a worker thread that runs out of memory', () => {
+  let t: TestServer;
+  afterAll(() => t?.close());
+
+  it('fails its run with the cause, not the server', async () => {
+    // Each thread's heap capped at 96 MB (STUDY_WORKER_HEAP_MB → piscina resourceLimits).
+    t = await startTestServer({ STUDY_WORKERS: '1', STUDY_WORKER_HEAP_MB: '96' });
+    const analyst = await t.signIn('analyst');
+    const lab = `/api/v1/labs/${t.labId}`;
+    // 2^22 samples: measured to need more than 96 MB of worker heap (docs/reliability.md).
+    const huge = (await analyst.post(`${lab}/scenarios`).send({ definition: { ...smallScenario('Too big for the worker'), acquisition: { sampleRateHz: 512, durationS: 8192 } } }).expect(201)).body.id;
+    const ok = (await analyst.post(`${lab}/scenarios`).send({ definition: smallScenario('Fits') }).expect(201)).body.id;
+    const recipe = (await analyst.post(`${lab}/recipes`).send({ definition: smallRecipe('Memory recipe') }).expect(201)).body.id;
+    const study = (await analyst.post(`${lab}/studies`).send({ name: 'Out of memory', recipe: { id: recipe }, scenarios: [{ id: huge }, { id: ok }], seeds: 1, baseSeed: 5 }).expect(202)).body.id;
+    const ended = await waitForStudy(analyst, `${lab}/studies/${study}`);
+    const runs = await t.db('runs').where({ study_id: study }).orderBy('position').select('position', 'status', 'error');
+    expect(runs.map((r) => [r.position, r.status])).toEqual([
+      [0, 'failed'],
+      [1, 'finished'],
+    ]);
+    expect(runs[0]!.error).toMatch(/memory/i);
+    expect(ended).toMatchObject({ progress: { done: 2, failed: 1, total: 2 } });
+    await analyst.get(`${lab}/studies`).expect(200); // the same server process still answers
+    const next = (await analyst.post(`${lab}/studies`).send({ name: 'After the out-of-memory run', recipe: { id: recipe }, scenarios: [{ id: ok }], seeds: 2, baseSeed: 5 }).expect(202)).body.id;
+    expect((await waitForStudy(analyst, `${lab}/studies/${next}`)).status).toBe('finished');
+  }, 60_000);
+});
