@@ -50,6 +50,12 @@ function oneCsvFile(dataDir: string): RequestHandler {
           ),
         );
       }
+      // The multipart parser (busboy) fails with a plain Error on a malformed body (a NUL in a
+      // part header, a missing boundary, a form cut short): the client's fault, not a 500.
+      // File-system errors carry an errno code and stay server errors.
+      if (err instanceof Error && !(err instanceof AppError) && !(err as NodeJS.ErrnoException).code) {
+        return next(new AppError(400, 'bad_upload', `The upload could not be read: ${err.message}.`));
+      }
       next(err);
     });
   };
