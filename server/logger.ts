@@ -3,10 +3,12 @@ import pino from 'pino';
 
 export type Logger = pino.Logger;
 
-export function createLogger(level: string): Logger {
-  return pino({
+/** The server's logger; `destination` (default stdout) lets tests read what would be written. */
+export function createLogger(level: string, destination?: pino.DestinationStream): Logger {
+  const options = {
     level,
     base: { service: 'plumbline' },
     redact: { paths: ['password', '*.password', 'req.headers.cookie', 'req.headers.authorization'], censor: '[redacted]' },
-  });
+  };
+  return destination ? pino(options, destination) : pino(options);
 }
