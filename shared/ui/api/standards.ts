@@ -1,6 +1,6 @@
 /** The current lab's register of approved standards: filter by scope, one standard, retire. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { retireSchema, standardListSchema, standardSchema, type StandardListQuery } from '@/shared/api/approval';
+import { retireSchema, reverifySchema, standardListSchema, standardSchema, type StandardListQuery } from '@/shared/api/approval';
 import { api } from './client';
 import { labPath } from './labs';
 
@@ -48,5 +48,12 @@ export function useRetireStandard(labId: string, id: string) {
       client.setQueryData(standardKeys.detail(labId, id), standard);
       void client.invalidateQueries({ queryKey: standardKeys.lab(labId) });
     },
+  });
+}
+
+/** Re-runs the standard's evidence on today's engine; the server answers when every run is done. */
+export function useReverifyStandard(labId: string, id: string) {
+  return useMutation({
+    mutationFn: () => api.post(labPath(labId, `/standards/${encodeURIComponent(id)}/reverify`), {}, { schema: reverifySchema }),
   });
 }

@@ -12,6 +12,7 @@ import { FactRow, formatDate, formatDateTime } from '../kit/figure';
 import { Panel, TextLink } from '../kit/panel';
 import { QueryView } from '../kit/query-view';
 import { ScopeFacts } from '../reviews/scope-facts';
+import { ReverifyPanel } from './reverify-panel';
 
 export function StandardBadge({ standard }: { standard: Pick<Standard, 'status' | 'reviewDueAt'> }) {
   if (standard.status === 'retired') return <StatusBadge tone="neutral" label="Retired" />;
@@ -59,6 +60,7 @@ function StandardBody({ labId, standard: s }: { labId: string; standard: Standar
         <TextLink href={`/reviews/${s.submissionId}`}>The review</TextLink>
         {s.evidenceStudyIds.map((id, i) => <TextLink key={id} href={`/studies/${id}`}>{`Evidence study ${i + 1}`}</TextLink>)}
       </View>
+      <ReverifyPanel labId={labId} standardId={s.id} />
       {role === 'admin' && s.status === 'active' ? (
         <View style={styles.actions}><Button label="Retire this standard…" variant="secondary" onPress={() => setAsking(true)} testID="retire-standard" /></View>
       ) : null}
