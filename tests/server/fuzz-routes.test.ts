@@ -11,9 +11,10 @@
 import fc from 'fast-check';
 import type { Role } from '@/shared/api/auth';
 import { hashPassword } from '@/server/auth/password';
+import { uploadFieldsSchema } from '@/shared/api/work';
 import { routeRegistry, type RouteSpec } from '@/server/auth/permissions';
 import { addMembership, insertUser } from '@/server/db/users';
-import { buildRegistry, countChanges, errorShapeProblems, FUZZ_SEED, fromJsonSchema, pathFor, roleFor, tableCounts, toJson, VOLATILE_TABLES } from './fuzz-support';
+import { buildRegistry, countChanges, errorShapeProblems, FUZZ_SEED, fromJsonSchema, hostileStrings, pathFor, roleFor, tableCounts, toJson, VOLATILE_TABLES } from './fuzz-support';
 import { startTestServer, type TestServer } from './helpers';
 
 const registry = buildRegistry();
@@ -86,6 +87,36 @@ describe('every request schema under generated bad input', () => {
       // Exports simulate the demo scenario's 131,072 samples for every valid query (1-6 s each on
       // this machine): a few runs keep the file near a minute; the other schemas share the rest.
       { numRuns: spec.action === 'exports.read' ? 6 : RUNS_PER_ROUTE, seed: FUZZ_SEED, endOnFailure: true },
+    );
+  }, 60_000);
+
+  // The upload route takes a multipart form (no JSON body schema in the registry): its text fields
+  // come from uploadFieldsSchema, the file name and content are hostile too.
+  it('POST /labs/:labId/uploads (multipart form fields, file names and contents)', async () => {
+    const fields = fromJsonSchema(toJson(uploadFieldsSchema));
+    const fileName = fc.oneof(fc.constantFrom('record.csv', ...hostileStrings.map((h) => `${h.slice(0, 100)}.csv`)), fc.string({ unit: 'binary', maxLength: 30 }));
+    const content = fc.oneof(
+      fc.constant('time_s,input,output\n' + Array.from({ length: 64 }, (_v, i) => `${i / 64},${Math.sin(i)},${2 * Math.sin(i)}`).join('\n')),
+      fc.string({ maxLength: 300 }),
+      fc.constantFrom('', '\uFEFF', 'a,b\n1', '"unclosed\n1,2', 'f_hz,re,im\n1,NaN,0\n'),
+    );
+    await fc.assert(
+      fc.asyncProperty(fields, fileName, content, async (value, name, text) => {
+        cases++;
+        const before = await tableCounts(t.db);
+        const req = agents.analyst.post(`/api/v1/labs/${t.labId}/uploads`).timeout(15_000);
+        if (value && typeof value === 'object' && !Array.isArray(value)) {
+          for (const [k, v] of Object.entries(value)) req.field(k, typeof v === 'string' ? v : JSON.stringify(v) ?? '');
+        }
+        const res = await req.attach('file', Buffer.from(text), name || 'x');
+        const after = await tableCounts(t.db);
+        expect(res.status).toBeLessThan(500);
+        if (res.status >= 400) {
+          expect(errorShapeProblems(res)).toEqual([]);
+          expect(countChanges(before, after, new Set([...VOLATILE_TABLES, ...(res.status === 400 ? [] : ['audit_events'])]))).toEqual([]);
+        }
+      }),
+      { numRuns: RUNS_PER_ROUTE, seed: FUZZ_SEED, endOnFailure: true },
     );
   }, 60_000);
 

@@ -110,6 +110,17 @@ describe('password rules', () => {
     }
     await t.http.post('/api/v1/auth/password-reset/confirm').send({ token, password: 'a-long-enough-passphrase' }).expect(204);
   });
+
+  it('refuses them on invitation accept too, and accepts a good one', async () => {
+    const email = 'rule.check@harborridge.test';
+    await agents.admin.post(`/api/v1/labs/${t.labId}/invitations`).send({ email, role: 'auditor' }).expect(201);
+    const token = tokenFromMail(await t.waitForMail(email), 'accept-invitation');
+    for (const password of ['short', email, 'rule.check', 'plumbline2026']) {
+      const res = await t.http.post(`/api/v1/invitations/${token}/accept`).send({ displayName: 'Rule Check', password }).expect(400);
+      expect(res.body.error).toMatchObject({ code: 'weak_password', details: { fields: [{ path: 'password' }] } });
+    }
+    await t.http.post(`/api/v1/invitations/${token}/accept`).send({ displayName: 'Rule Check', password: 'a-long-enough-passphrase' }).expect(200);
+  });
 });
 
 describe('security headers', () => {
