@@ -4,8 +4,10 @@
  * the Bench on that scenario, and sees the plots change when the noise moves from the response
  * channel to the force channel.
  */
+import fs from 'node:fs';
+import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { expect, openPage, screenshot, signIn, type Harness, type ViewportName } from './harness';
+import { expect, openPage, screenshot, SCREENSHOTS, signIn, type Harness, type ViewportName } from './harness';
 
 const TIMEOUT = 30_000;
 
@@ -107,6 +109,16 @@ function journey(viewport: ViewportName) {
         await screenshot(page, `modelling-what-if-input-noise-${viewport}`);
         await page.getByTestId('what-if-error').scrollIntoViewIfNeeded();
         await screenshot(page, `modelling-what-if-error-${viewport}`);
+        // Export of the FRF plot as SVG and PNG, as files the browser downloads.
+        const frf = page.getByTestId('what-if-frf');
+        const [svgFile] = await Promise.all([page.waitForEvent('download'), frf.getByRole('button', { name: 'Export SVG' }).click()]);
+        const svgText = fs.readFileSync((await svgFile.path())!, 'utf8');
+        expect(svgFile.suggestedFilename() === 'exact-frf-and-the-three-estimates.svg', `SVG file name ${svgFile.suggestedFilename()}`);
+        expect(svgText.startsWith('<?xml') && svgText.includes('<path') && svgText.includes('Phase · degrees'), 'the SVG export lacks its curves or captions');
+        const [pngFile] = await Promise.all([page.waitForEvent('download'), frf.getByRole('button', { name: 'Export PNG' }).click()]);
+        const png = fs.readFileSync((await pngFile.path())!);
+        expect(png.subarray(1, 4).toString('ascii') === 'PNG' && png.length > 10_000, `the PNG export is not an image (${png.length} bytes)`);
+        fs.writeFileSync(path.join(SCREENSHOTS, `modelling-export-${viewport}.png`), png);
         expect(problems.length === 0, `console errors:\n${problems.join('\n')}`);
       } catch (err) {
         await screenshot(page, `modelling-failure-${viewport}`).catch(() => undefined);

@@ -6,7 +6,7 @@
  */
 import { fireEvent, screen, within } from '@testing-library/dom';
 import { act } from 'react';
-import { FrfPlot, LinePlot } from '@/shared/ui/plots';
+import { exportFileName, FrfPlot, LinePlot, panelSvg } from '@/shared/ui/plots';
 import { curveColors } from '@/shared/ui/theme';
 import { renderDom, settle } from './support/dom';
 
@@ -140,6 +140,27 @@ describe('FrfPlot', () => {
       fireEvent.click(reset);
     });
     expect(tickLabels()).toEqual(ticksBefore);
+  });
+});
+
+describe('export', () => {
+  test('the panel becomes one standalone SVG with title, captions, both frames and the legend', async () => {
+    await renderFrf();
+    const panel = screen.getByTestId('frf');
+    const { svg, width, height } = panelSvg(panel, 'Test FRF');
+    expect(svg.startsWith('<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg"')).toBe(true);
+    expect(svg).toContain('>Test FRF</text>');
+    expect(svg).toContain('>Magnitude · dB re 1 m/N</text>');
+    expect(svg).toContain('>Phase · degrees</text>');
+    expect(svg).toContain('>H1 95 % band</text>');
+    expect(svg).toContain('stroke-dasharray="6 4"'); // the exact FRF, copied from the frame
+    expect((svg.match(/<g transform="translate/g) ?? []).length).toBe(2); // magnitude and phase
+    expect(width).toBeGreaterThanOrEqual(320);
+    expect(height).toBeGreaterThan(220 + 150);
+    // The document parses as XML.
+    const parsed = new DOMParser().parseFromString(svg, 'image/svg+xml');
+    expect(parsed.getElementsByTagName('parsererror')).toHaveLength(0);
+    expect(exportFileName('Exact FRF, seed 1', 'png')).toBe('exact-frf-seed-1.png');
   });
 });
 

@@ -80,6 +80,10 @@ describe('magnitude and bands', () => {
     const p = phaseBand([-90], [Math.PI / 36]);
     expect(p.low[0]).toBeCloseTo(-95, 12);
     expect(p.high[0]).toBeCloseTo(-85, 12);
+    // Across a wrap (179° → −179°) the band has a gap, as the curve does.
+    const wrapped = phaseBand([178, 179, -179, -178], [0.01, 0.01, 0.01, 0.01], 180);
+    expect(Number.isNaN(wrapped.low[2]) && Number.isNaN(wrapped.high[2])).toBe(true);
+    expect(Number.isFinite(wrapped.low[3])).toBe(true);
   });
 
   test('magnitude unit names its reference in dB', () => {

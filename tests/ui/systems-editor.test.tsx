@@ -140,6 +140,26 @@ describe('system editor', () => {
     expect((screen.getByLabelText('Natural frequency fₙ (Hz)') as HTMLInputElement).value).toBe('123');
   });
 
+  test('a two-mass chain with equal masses and springs has its modes at 0.618 and 1.618·sqrt(k/m)', async () => {
+    // Ground–m–m chain, equal springs k: ω = sqrt(k/m)·sqrt((3 ∓ √5)/2) (standard textbook result).
+    installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
+    await renderApp('/systems/new');
+    await act(async () => {
+      fireEvent.click(screen.getByRole('radio', { name: 'Masses, springs, dampers' }));
+    });
+    await typeInto('Mass 1 (kg)', '1');
+    await typeInto('Mass 2 (kg)', '1');
+    await typeInto('Stiffness of spring 1 (N/m)', '10000');
+    await typeInto('Stiffness of spring 2 (N/m)', '10000');
+    await typeInto('Damping of damper 1 (N·s/m)', '0.01');
+    await typeInto('Damping of damper 2 (N·s/m)', '0.01');
+    await waitMs(400);
+    const f = (r: number) => (100 * Math.sqrt((3 + r * Math.sqrt(5)) / 2)) / (2 * Math.PI);
+    const natural = (mode: number) => within(screen.getByTestId(`mode-${mode}`)).getByText('Natural frequency fₙ').parentElement!.textContent;
+    expect(natural(1)).toBe(`Natural frequency fₙ${f(-1).toPrecision(5)} Hz`); // 9.8363 Hz
+    expect(natural(2)).toBe(`Natural frequency fₙ${f(1).toPrecision(5)} Hz`); // 25.752 Hz
+  });
+
   test('saving a new system posts the definition and opens it', async () => {
     const saved = { ...record(1, armSpec), id: 'sys-new' };
     const api = installFakeApi({

@@ -84,7 +84,7 @@ export function FrfPlot(props: FrfPlotProps) {
         const b = bandIn(c.confidence.magnitudeLow, c.confidence.magnitudeHigh, magnitude);
         magBands.push({ id: `${c.id}-band`, label: `${c.label} 95 % band`, color: c.color, x: c.frequenciesHz, low: b.low, high: b.high });
         if (c.confidence.phaseHalfWidthRad) {
-          const p = phaseBand(ph, c.confidence.phaseHalfWidthRad);
+          const p = phaseBand(ph, c.confidence.phaseHalfWidthRad, phase === 'wrapped' ? 180 : undefined);
           phaseBands.push({ id: `${c.id}-band`, label: `${c.label} 95 % band`, color: c.color, x: c.frequenciesHz, low: p.low, high: p.high });
         }
       }

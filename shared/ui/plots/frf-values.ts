@@ -82,14 +82,19 @@ export function bandIn(low: ArrayLike<number>, high: ArrayLike<number>, scale: M
   return { low: toDb(floor), high: toDb(high) };
 }
 
-/** Phase band: the curve's phase ± a half width given in radians, degrees. */
-export function phaseBand(phase: ArrayLike<number>, halfWidthRad: ArrayLike<number>) {
+/**
+ * Phase band: the curve's phase ± a half width given in radians, degrees. With `breakAbove`
+ * (a wrapped phase: 180) the band has a gap where the phase jumps by more than that between
+ * neighbouring lines, as the curve itself does.
+ */
+export function phaseBand(phase: ArrayLike<number>, halfWidthRad: ArrayLike<number>, breakAbove?: number) {
   const low = new Float64Array(phase.length);
   const high = new Float64Array(phase.length);
   for (let i = 0; i < phase.length; i++) {
     const w = (halfWidthRad[i] * 180) / Math.PI;
-    low[i] = phase[i] - w;
-    high[i] = phase[i] + w;
+    const jump = breakAbove !== undefined && i > 0 && Math.abs(phase[i] - phase[i - 1]) > breakAbove;
+    low[i] = jump ? NaN : phase[i] - w;
+    high[i] = jump ? NaN : phase[i] + w;
   }
   return { low, high };
 }
