@@ -1,6 +1,6 @@
 /** Review submissions of the current lab: the inbox, one submission, its evidence, the decision. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { decideSchema, evidenceSchema, reviewListSchema, submissionSchema, type DecideRequest } from '@/shared/api/approval';
+import { decideSchema, evidenceSchema, reviewListSchema, submissionSchema, submitReviewSchema, type DecideRequest, type SubmitReviewRequest } from '@/shared/api/approval';
 import { api } from './client';
 import { labPath } from './labs';
 
@@ -57,6 +57,18 @@ export function useDecide(labId: string, id: string) {
       client.setQueryData(reviewKeys.detail(labId, id), submission);
       void client.invalidateQueries({ queryKey: reviewKeys.lab(labId) });
       void client.invalidateQueries({ queryKey: ['standards', labId] });
+    },
+  });
+}
+
+/** Puts a recipe version with its evidence studies forward for review; answers the new submission. */
+export function useSubmitForReview(labId: string) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: (request: SubmitReviewRequest) => api.post(reviewPath(labId), submitReviewSchema.parse(request), { schema: submissionSchema }),
+    onSuccess: (submission) => {
+      client.setQueryData(reviewKeys.detail(labId, submission.id), submission);
+      void client.invalidateQueries({ queryKey: reviewKeys.lab(labId) });
     },
   });
 }

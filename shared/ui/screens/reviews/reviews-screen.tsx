@@ -1,7 +1,7 @@
 /** Reviews: the inbox beside the chosen submission's evidence (one column on a phone). */
 import { StyleSheet, View } from 'react-native';
 import { EmptyState } from '@/shared/ui/components';
-import { useLabId } from '@/shared/ui/lab-context';
+import { useLabId, useLabRole } from '@/shared/ui/lab-context';
 import { areaById } from '@/shared/ui/navigation/areas';
 import { space } from '@/shared/ui/theme';
 import { PageHead, TextLink } from '../kit/panel';
@@ -11,10 +11,12 @@ import { ReviewList } from './review-list';
 
 export function ReviewsScreen({ submissionId }: { submissionId?: string }) {
   const labId = useLabId();
+  const role = useLabRole();
   const area = areaById('reviews');
   const list = (
     <View style={styles.list}>
       <PageHead title={submissionId ? 'Reviews' : area.label} eyebrow={area.group} intro={submissionId ? undefined : area.purpose} />
+      {role === 'analyst' ? <TextLink href="/reviews/submit" testID="submit-review-link">Submit a recipe for review</TextLink> : null}
       <ReviewList labId={labId} selectedId={submissionId} />
     </View>
   );

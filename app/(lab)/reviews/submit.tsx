@@ -1,0 +1,5 @@
+import { SubmitReviewScreen } from '@/shared/ui/screens/reviews/submit-screen';
+
+export default function SubmitReviewRoute() {
+  return <SubmitReviewScreen />;
+}
