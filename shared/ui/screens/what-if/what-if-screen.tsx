@@ -10,6 +10,7 @@ import { buildSystem } from '@/shared/engine/systems';
 import { scenariosApi } from '@/shared/ui/api/scenarios';
 import { AppText, Caution } from '@/shared/ui/components';
 import { useLabId } from '@/shared/ui/lab-context';
+import { useWideLayout } from '@/shared/ui/navigation/use-wide-layout';
 import { ChoiceChips, SelectField } from '@/shared/ui/screens/kit/choice-field';
 import { PageHead, Panel, TextLink } from '@/shared/ui/screens/kit/panel';
 import { Column } from '@/shared/ui/screens/kit/two-pane';
@@ -23,6 +24,7 @@ const now = () => (typeof performance !== 'undefined' ? performance.now() : Date
 
 export function WhatIfScreen() {
   const labId = useLabId();
+  const wide = useWideLayout();
   const [source, setSource] = useState<string>(BUILTIN_SCENARIOS[0].id);
   const builtin = BUILTIN_SCENARIOS.find((b) => b.id === source);
   const labScenario = scenariosApi.useLatest(labId, builtin ? '' : source);
@@ -53,22 +55,26 @@ export function WhatIfScreen() {
         {!builtin && labScenario.isPending ? <AppText variant="small" tone="muted">Loading the scenario…</AppText> : null}
       </Panel>
       {settings && base?.ok ? (
-        <View style={styles.bench}>
-          <WhatIfControls settings={settings} sampleRateHz={base.value.acquisition.sampleRateHz} baseDurationS={base.value.acquisition.durationS} onChange={setSettings} />
-          <AppText variant="small" tone="muted" role="status" testID="what-if-status">
-            {busy ? 'Updating…' : result ? 'Up to date' : ''}
-          </AppText>
-          {error ? <Caution title="The engine refused these settings">{error}</Caution> : null}
-          {result ? <WhatIfPlots result={result} settings={settings} zoomBands={zoomBands} /> : null}
-          {result?.warnings.length ? (
-            <Caution title="The engine notes">
-              <View style={styles.notes}>
-                {result.warnings.map((w) => (
-                  <AppText key={w} variant="small">{`• ${w}`}</AppText>
-                ))}
-              </View>
-            </Caution>
-          ) : null}
+        <View style={[styles.bench, wide && styles.benchWide]}>
+          <View style={[styles.gap, wide && styles.controlsWide]}>
+            <WhatIfControls settings={settings} sampleRateHz={base.value.acquisition.sampleRateHz} baseDurationS={base.value.acquisition.durationS} onChange={setSettings} />
+          </View>
+          <View style={[styles.gap, wide && styles.resultsWide]}>
+            <AppText variant="small" tone="muted" role="status" testID="what-if-status">
+              {busy ? 'Updating…' : result ? 'Up to date' : ''}
+            </AppText>
+            {error ? <Caution title="The engine refused these settings">{error}</Caution> : null}
+            {result ? <WhatIfPlots result={result} settings={settings} zoomBands={zoomBands} /> : null}
+            {result?.warnings.length ? (
+              <Caution title="The engine notes">
+                <View style={styles.notes}>
+                  {result.warnings.map((w) => (
+                    <AppText key={w} variant="small">{`• ${w}`}</AppText>
+                  ))}
+                </View>
+              </Caution>
+            ) : null}
+          </View>
         </View>
       ) : null}
     </Column>
@@ -112,4 +118,12 @@ function useWhatIf(definition: unknown, settings: WhatIfSettings | null) {
   return state;
 }
 
-const styles = StyleSheet.create({ bench: { gap: space.lg }, notes: { gap: space.xs } });
+const styles = StyleSheet.create({
+  bench: { gap: space.lg },
+  // On a wide screen the settings sit beside the plots, so a change and its effect are in view together.
+  benchWide: { flexDirection: 'row', alignItems: 'flex-start' },
+  controlsWide: { width: 340, flexShrink: 0 },
+  resultsWide: { flex: 1, minWidth: 0 },
+  gap: { gap: space.lg },
+  notes: { gap: space.xs },
+});
