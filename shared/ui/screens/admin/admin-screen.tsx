@@ -6,6 +6,7 @@ import { areaById } from '@/shared/ui/navigation/areas';
 import { PageHead, TextLink } from '../kit/panel';
 import { Column } from '../kit/two-pane';
 import { InvitationsPanel } from './invitations-panel';
+import { LabSettingsPanel } from './lab-settings-panel';
 import { MailPanel } from './mail-panel';
 import { MembersPanel } from './members-panel';
 
@@ -25,6 +26,7 @@ export function AdminScreen() {
   return (
     <Column title="Lab">
       <PageHead title="Lab" eyebrow={area.group} intro={`${lab.labName}: ${area.purpose}`} actions={<TextLink href="/audit">Audit trail</TextLink>} />
+      <LabSettingsPanel labId={lab.labId} />
       <MembersPanel labId={lab.labId} myUserId={myUserId} />
       <InvitationsPanel labId={lab.labId} />
       <MailPanel labId={lab.labId} />
