@@ -39,7 +39,11 @@ describe('navigation at phone width (390 px)', () => {
   });
 
   test('a tab opens its area, whose screen says what the area is for', async () => {
-    installFakeApi({ 'GET /api/v1/auth/session': signedIn });
+    installFakeApi({
+      'GET /api/v1/auth/session': signedIn,
+      // The Scenarios screen lists the lab's scenarios: an empty lab shows the area's empty state.
+      'GET /api/v1/labs/lab-harbor-ridge/scenarios?limit=20&offset=0&sort=updatedAt&order=desc': { status: 200, body: { items: [], total: 0, limit: 20, offset: 0 } },
+    });
     await renderApp('/');
 
     await press('tab', 'Scenarios');
