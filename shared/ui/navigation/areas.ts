@@ -143,8 +143,8 @@ export function areaById(id: AreaId): Area {
   return area;
 }
 
-/** The area a path belongs to: `/studies/42` is in Studies; `/` is the Bench. */
+/** The area a path belongs to: `/studies/42` is in Studies; `/` and `/bench/…` are the Bench. */
 export function areaForPath(pathname: string): Area | undefined {
-  if (pathname === '/' || pathname === '') return areaById('bench');
+  if (pathname === '/' || pathname === '' || pathname.startsWith('/bench/')) return areaById('bench');
   return areas.find((area) => area.href !== '/' && (pathname === area.href || pathname.startsWith(`${area.href}/`)));
 }
