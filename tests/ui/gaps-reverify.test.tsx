@@ -115,7 +115,7 @@ describe("re-verification on today's engine", () => {
     expect(screen.getByTestId('reverify-error').textContent).toContain('A study of the evidence has no stored results to compare.');
   });
 
-  test.each(['reviewer', 'auditor'] as const)('a %s sees no re-run action', async (role) => {
+  test.each(['reviewer', 'auditor'] as const)('signed in as %s, there is no re-run action', async (role) => {
     installEvidenceApi({ ...session(meAs(role)), [`GET ${lab('/standards/std-1')}`]: ok(standard()) });
     await renderApp('/standards/std-1');
     expect(screen.getByTestId('standard-detail')).toBeTruthy();
