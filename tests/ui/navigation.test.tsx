@@ -51,7 +51,8 @@ describe('navigation at phone width (390 px)', () => {
     expect(window.location.pathname).toBe('/scenarios');
     expect(screen.getByTestId('screen-title').textContent).toBe('Scenarios');
     expect(screen.getByText(/puts a system under test conditions/)).toBeTruthy();
-    expect(screen.getByTestId('empty-state').textContent).toContain('No scenarios yet');
+    // The list arrives after the screen: wait for it (a loaded machine can take seconds).
+    expect((await screen.findByTestId('empty-state', {}, { timeout: 10_000 })).textContent).toContain('No scenarios yet');
   });
 });
 
