@@ -3,8 +3,6 @@
  * live, acceptance criteria, the engine's advice for a scenario, saving as a new version, and the
  * version history with the differences between any two versions field by field.
  */
-import { useRouter } from 'expo-router';
-import { useState } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { parseRecipe, type Recipe } from '@/shared/engine/recipe';
@@ -21,6 +19,7 @@ import { RecipeAdvice } from './recipe-advice';
 import { RecipeFields } from './recipe-fields';
 import { recipeFormSchema, startingRecipe, type RecipeFormValues } from './recipe-form-values';
 import { WindowFigures } from './window-figures';
+import { useVersionedSave } from '@/shared/ui/screens/systems/use-versioned-save';
 
 interface EditorProps {
   labId: string;
@@ -46,27 +45,15 @@ function valuesOf(record: RecipeRecord | null): RecipeFormValues {
 }
 
 function RecipeForm({ labId, record, canWrite }: { labId: string; record: RecipeRecord | null; canWrite: boolean }) {
-  const router = useRouter();
   const form = useForm<RecipeFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, setValue, getValues, handleSubmit, reset } = form;
-  const create = recipesApi.useCreate(labId);
-  const update = recipesApi.useUpdate(labId, record?.id ?? '');
-  const [savedVersion, setSavedVersion] = useState<number | null>(null);
+  const { save, mutation, savedVersion, versions, useVersion } = useVersionedSave(recipesApi, labId, record, '/recipes', (saved) => reset(valuesOf(saved)));
   const definition = useWatch({ control, name: 'definition' }) as Recipe;
-  const versions = recipesApi.useVersions(labId, record?.id ?? '');
-  const useVersion = (v: number | null) => recipesApi.useVersion(labId, record?.id ?? '', v);
 
   const onSave = handleSubmit((values) => {
     const body = { note: values.note ?? '', description: values.definition.description ?? '', definition: values.definition as Recipe };
-    const done = (saved: RecipeRecord) => {
-      setSavedVersion(saved.version.version);
-      reset(valuesOf(saved));
-      if (!record) router.replace(`/recipes/${saved.id}` as never);
-    };
-    if (record) update.mutate({ ...body, baseVersion: record.latestVersion }, { onSuccess: done });
-    else create.mutate(body, { onSuccess: done });
+    save(body);
   });
-  const mutation = record ? update : create;
   return (
     <FormProvider {...form}>
       <View style={styles.editor} testID="recipe-editor">

@@ -3,8 +3,6 @@
  * excitation and error sources; the preview updates as one edits; saving makes a new version;
  * the version history shows what changed.
  */
-import { useRouter } from 'expo-router';
-import { useState } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { OUTPUT_UNITS, parseScenario, type ScenarioInput } from '@/shared/engine/scenario';
@@ -24,6 +22,7 @@ import { ExcitationFields } from './excitation-fields';
 import { scenarioFormSchema, startingScenario, type ScenarioFormValues } from './scenario-form-values';
 import { ScenarioLive } from './scenario-live';
 import { SystemPicker } from './system-picker';
+import { useVersionedSave } from '@/shared/ui/screens/systems/use-versioned-save';
 
 interface EditorProps {
   labId: string;
@@ -54,28 +53,16 @@ function valuesOf(record: ScenarioRecord | null): ScenarioFormValues {
 }
 
 function ScenarioForm({ labId, record, canWrite }: { labId: string; record: ScenarioRecord | null; canWrite: boolean }) {
-  const router = useRouter();
   const form = useForm<ScenarioFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, setValue, handleSubmit, reset } = form;
-  const create = scenariosApi.useCreate(labId);
-  const update = scenariosApi.useUpdate(labId, record?.id ?? '');
-  const [savedVersion, setSavedVersion] = useState<number | null>(null);
+  const { save, mutation, savedVersion, versions, useVersion } = useVersionedSave(scenariosApi, labId, record, '/scenarios', (saved) => reset(valuesOf(saved)));
   const quantity = useWatch({ control, name: 'definition.system.quantity' }) as keyof typeof OUTPUT_UNITS;
   const start = useWatch({ control, name: 'definition.acquisition.start' });
-  const versions = scenariosApi.useVersions(labId, record?.id ?? '');
-  const useVersion = (v: number | null) => scenariosApi.useVersion(labId, record?.id ?? '', v);
 
   const onSave = handleSubmit((values) => {
     const body = { note: values.note ?? '', description: values.definition.description ?? '', definition: values.definition as never };
-    const done = (saved: ScenarioRecord) => {
-      setSavedVersion(saved.version.version);
-      reset(valuesOf(saved));
-      if (!record) router.replace(`/scenarios/${saved.id}` as never);
-    };
-    if (record) update.mutate({ ...body, baseVersion: record.latestVersion }, { onSuccess: done });
-    else create.mutate(body, { onSuccess: done });
+    save(body);
   });
-  const mutation = record ? update : create;
   return (
     <FormProvider {...form}>
       <View style={styles.editor} testID="scenario-editor">

@@ -3,8 +3,7 @@
  * dampers) and its fields, the FRF quantity; the exact FRF and mode facts update live; saving
  * makes version 1 or a new version; the version history shows what changed.
  */
-import { useRouter } from 'expo-router';
-import { useRef, useState } from 'react';
+import { useRef } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { parseSystemSpec } from '@/shared/engine/systems';
@@ -24,6 +23,7 @@ import { kindOptions, quantityOptions, startingDefinition, systemFormSchema, typ
 import { SystemLive } from './system-live';
 import { TextInputField } from './text-input-field';
 import { VersionHistory } from './version-history';
+import { useVersionedSave } from './use-versioned-save';
 
 interface EditorProps {
   labId: string;
@@ -50,18 +50,13 @@ function valuesOf(record: SystemRecord | null): SystemFormValues {
 }
 
 function SystemForm({ labId, record, canWrite }: { labId: string; record: SystemRecord | null; canWrite: boolean }) {
-  const router = useRouter();
   const form = useForm<SystemFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, getValues, setValue, handleSubmit, reset } = form;
-  const create = systemsApi.useCreate(labId);
-  const update = systemsApi.useUpdate(labId, record?.id ?? '');
-  const [savedVersion, setSavedVersion] = useState<number | null>(null);
+  const { save, mutation, savedVersion, versions, useVersion } = useVersionedSave(systemsApi, labId, record, '/systems', (saved) => reset({ ...valuesOf(saved), note: '' }));
   const kind = useWatch({ control, name: 'definition.kind' }) as SystemKind;
   const quantity = useWatch({ control, name: 'definition.quantity' });
   // Switching kind keeps what was typed for the other kinds, so switching back restores it.
   const stash = useRef<Partial<Record<SystemKind, SystemSpec>>>({});
-  const versions = systemsApi.useVersions(labId, record?.id ?? '');
-  const useVersion = (v: number | null) => systemsApi.useVersion(labId, record?.id ?? '', v);
 
   const switchKind = (next: SystemKind) => {
     if (next === kind) return;
@@ -72,15 +67,8 @@ function SystemForm({ labId, record, canWrite }: { labId: string; record: System
   };
   const onSave = handleSubmit((values) => {
     const body = { name: values.name, description: values.description ?? '', note: values.note ?? '', definition: values.definition as SystemSpec };
-    const done = (saved: SystemRecord) => {
-      setSavedVersion(saved.version.version);
-      reset({ ...valuesOf(saved), note: '' });
-      if (!record) router.replace(`/systems/${saved.id}` as never);
-    };
-    if (record) update.mutate({ ...body, baseVersion: record.latestVersion }, { onSuccess: done });
-    else create.mutate(body, { onSuccess: done });
+    save(body);
   });
-  const mutation = record ? update : create;
   const title = record ? record.name : 'New system';
   return (
     <FormProvider {...form}>
