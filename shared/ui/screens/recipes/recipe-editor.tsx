@@ -8,33 +8,23 @@ import { StyleSheet, View } from 'react-native';
 import { parseRecipe, type Recipe } from '@/shared/engine/recipe';
 import { recipesApi, type RecipeRecord } from '@/shared/ui/api/recipes';
 import { Panel } from '@/shared/ui/screens/kit/panel';
-import { QueryView } from '@/shared/ui/screens/kit/query-view';
 import { EditorHead } from '@/shared/ui/screens/systems/editor-head';
 import { engineCheckedResolver } from '@/shared/ui/screens/systems/form-rules';
-import { SaveBar } from '@/shared/ui/screens/systems/save-bar';
 import { TextInputField } from '@/shared/ui/screens/systems/text-input-field';
-import { VersionHistory } from '@/shared/ui/screens/systems/version-history';
 import { space } from '@/shared/ui/theme';
 import { RecipeAdvice } from './recipe-advice';
 import { RecipeFields } from './recipe-fields';
 import { recipeFormSchema, startingRecipe, type RecipeFormValues } from './recipe-form-values';
 import { WindowFigures } from './window-figures';
 import { useVersionedSave } from '@/shared/ui/screens/systems/use-versioned-save';
-
-interface EditorProps {
-  labId: string;
-  id: string;
-  canWrite: boolean;
-}
+import { VersionedEditorFooter, VersionedEditorLoader, type EditorProps } from '@/shared/ui/screens/systems/versioned-editor-parts';
 
 export function RecipeEditor({ labId, id, canWrite }: EditorProps) {
-  const isNew = id === 'new';
-  const latest = recipesApi.useLatest(labId, isNew ? '' : id);
-  if (isNew) return <RecipeForm labId={labId} record={null} canWrite={canWrite} />;
+  const latest = recipesApi.useLatest(labId, id === 'new' ? '' : id);
   return (
-    <QueryView query={latest} loadingLabel="Loading the recipe…">
-      {(record) => <RecipeForm key={record.id} labId={labId} record={record} canWrite={canWrite} />}
-    </QueryView>
+    <VersionedEditorLoader id={id} noun="recipe" query={latest}>
+      {(record) => <RecipeForm key={record?.id ?? 'new'} labId={labId} record={record} canWrite={canWrite} />}
+    </VersionedEditorLoader>
   );
 }
 
@@ -47,12 +37,12 @@ function valuesOf(record: RecipeRecord | null): RecipeFormValues {
 function RecipeForm({ labId, record, canWrite }: { labId: string; record: RecipeRecord | null; canWrite: boolean }) {
   const form = useForm<RecipeFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, setValue, getValues, handleSubmit, reset } = form;
-  const { save, mutation, savedVersion, versions, useVersion } = useVersionedSave(recipesApi, labId, record, '/recipes', (saved) => reset(valuesOf(saved)));
+  const saver = useVersionedSave(recipesApi, labId, record, '/recipes', (saved) => reset(valuesOf(saved)));
   const definition = useWatch({ control, name: 'definition' }) as Recipe;
 
   const onSave = handleSubmit((values) => {
     const body = { note: values.note ?? '', description: values.definition.description ?? '', definition: values.definition as Recipe };
-    save(body);
+    saver.save(body);
   });
   return (
     <FormProvider {...form}>
@@ -70,19 +60,16 @@ function RecipeForm({ labId, record, canWrite }: { labId: string; record: Recipe
           canWrite={canWrite}
           onUse={(settings) => setValue('definition', { ...(getValues('definition') as Recipe), ...settings }, { shouldDirty: true })}
         />
-        <SaveBar
+        <VersionedEditorFooter
+          saver={saver}
           isNew={!record}
           canWrite={canWrite}
-          busy={mutation.isPending}
-          error={mutation.error}
-          savedVersion={savedVersion}
           noun="recipe"
+          dirty={form.formState.isDirty}
           onSave={() => void onSave()}
+          onLoad={(d) => setValue('definition', d as Recipe, { shouldDirty: true })}
           noteField={<TextInputField control={control} name="note" label="What this version changes" />}
         />
-        {record ? (
-          <VersionHistory dirty={form.formState.isDirty} versions={versions} useVersion={useVersion} onLoad={(_, d) => setValue('definition', d as Recipe, { shouldDirty: true })} />
-        ) : null}
       </View>
     </FormProvider>
   );

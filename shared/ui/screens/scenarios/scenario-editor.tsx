@@ -9,13 +9,10 @@ import { OUTPUT_UNITS, parseScenario, type ScenarioInput } from '@/shared/engine
 import { scenariosApi, type ScenarioRecord } from '@/shared/ui/api/scenarios';
 import { ChoiceChips } from '@/shared/ui/screens/kit/choice-field';
 import { Panel } from '@/shared/ui/screens/kit/panel';
-import { QueryView } from '@/shared/ui/screens/kit/query-view';
 import { EditorHead } from '@/shared/ui/screens/systems/editor-head';
 import { engineCheckedResolver } from '@/shared/ui/screens/systems/form-rules';
 import { NumberField } from '@/shared/ui/screens/systems/number-field';
-import { SaveBar } from '@/shared/ui/screens/systems/save-bar';
 import { TextInputField } from '@/shared/ui/screens/systems/text-input-field';
-import { VersionHistory } from '@/shared/ui/screens/systems/version-history';
 import { space } from '@/shared/ui/theme';
 import { ErrorFields } from './error-fields';
 import { ExcitationFields } from './excitation-fields';
@@ -23,21 +20,14 @@ import { scenarioFormSchema, startingScenario, type ScenarioFormValues } from '.
 import { ScenarioLive } from './scenario-live';
 import { SystemPicker } from './system-picker';
 import { useVersionedSave } from '@/shared/ui/screens/systems/use-versioned-save';
-
-interface EditorProps {
-  labId: string;
-  id: string;
-  canWrite: boolean;
-}
+import { VersionedEditorFooter, VersionedEditorLoader, type EditorProps } from '@/shared/ui/screens/systems/versioned-editor-parts';
 
 export function ScenarioEditor({ labId, id, canWrite }: EditorProps) {
-  const isNew = id === 'new';
-  const latest = scenariosApi.useLatest(labId, isNew ? '' : id);
-  if (isNew) return <ScenarioForm labId={labId} record={null} canWrite={canWrite} />;
+  const latest = scenariosApi.useLatest(labId, id === 'new' ? '' : id);
   return (
-    <QueryView query={latest} loadingLabel="Loading the scenario…">
-      {(record) => <ScenarioForm key={record.id} labId={labId} record={record} canWrite={canWrite} />}
-    </QueryView>
+    <VersionedEditorLoader id={id} noun="scenario" query={latest}>
+      {(record) => <ScenarioForm key={record?.id ?? 'new'} labId={labId} record={record} canWrite={canWrite} />}
+    </VersionedEditorLoader>
   );
 }
 
@@ -55,13 +45,13 @@ function valuesOf(record: ScenarioRecord | null): ScenarioFormValues {
 function ScenarioForm({ labId, record, canWrite }: { labId: string; record: ScenarioRecord | null; canWrite: boolean }) {
   const form = useForm<ScenarioFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, setValue, handleSubmit, reset } = form;
-  const { save, mutation, savedVersion, versions, useVersion } = useVersionedSave(scenariosApi, labId, record, '/scenarios', (saved) => reset(valuesOf(saved)));
+  const saver = useVersionedSave(scenariosApi, labId, record, '/scenarios', (saved) => reset(valuesOf(saved)));
   const quantity = useWatch({ control, name: 'definition.system.quantity' }) as keyof typeof OUTPUT_UNITS;
   const start = useWatch({ control, name: 'definition.acquisition.start' });
 
   const onSave = handleSubmit((values) => {
     const body = { note: values.note ?? '', description: values.definition.description ?? '', definition: values.definition as never };
-    save(body);
+    saver.save(body);
   });
   return (
     <FormProvider {...form}>
@@ -92,19 +82,16 @@ function ScenarioForm({ labId, record, canWrite }: { labId: string; record: Scen
           <ErrorFields outputUnit={OUTPUT_UNITS[quantity] ?? 'm'} />
         </Panel>
         <ScenarioLive labId={labId} saved={record ? { id: record.id, version: record.latestVersion } : null} />
-        <SaveBar
+        <VersionedEditorFooter
+          saver={saver}
           isNew={!record}
           canWrite={canWrite}
-          busy={mutation.isPending}
-          error={mutation.error}
-          savedVersion={savedVersion}
           noun="scenario"
+          dirty={form.formState.isDirty}
           onSave={() => void onSave()}
+          onLoad={(d) => setValue('definition', d as ScenarioInput, { shouldDirty: true })}
           noteField={<TextInputField control={control} name="note" label="What this version changes" />}
         />
-        {record ? (
-          <VersionHistory dirty={form.formState.isDirty} versions={versions} useVersion={useVersion} onLoad={(_, d) => setValue('definition', d as ScenarioInput, { shouldDirty: true })} />
-        ) : null}
       </View>
     </FormProvider>
   );

@@ -11,34 +11,24 @@ import type { SystemSpec } from '@/shared/engine/systems/schema';
 import { systemsApi, type SystemRecord } from '@/shared/ui/api/systems';
 import { ChoiceChips } from '@/shared/ui/screens/kit/choice-field';
 import { Panel } from '@/shared/ui/screens/kit/panel';
-import { QueryView } from '@/shared/ui/screens/kit/query-view';
 import { space } from '@/shared/ui/theme';
 import { EditorHead } from './editor-head';
 import { engineCheckedResolver } from './form-rules';
 import { ModalFields } from './modal-fields';
 import { PhysicalFields } from './physical-fields';
-import { SaveBar } from './save-bar';
 import { SdofFields } from './sdof-fields';
 import { kindOptions, quantityOptions, startingDefinition, systemFormSchema, type SystemFormValues, type SystemKind } from './system-form-values';
 import { SystemLive } from './system-live';
 import { TextInputField } from './text-input-field';
-import { VersionHistory } from './version-history';
 import { useVersionedSave } from './use-versioned-save';
-
-interface EditorProps {
-  labId: string;
-  id: string;
-  canWrite: boolean;
-}
+import { VersionedEditorFooter, VersionedEditorLoader, type EditorProps } from './versioned-editor-parts';
 
 export function SystemEditor({ labId, id, canWrite }: EditorProps) {
-  const isNew = id === 'new';
-  const latest = systemsApi.useLatest(labId, isNew ? '' : id);
-  if (isNew) return <SystemForm labId={labId} record={null} canWrite={canWrite} />;
+  const latest = systemsApi.useLatest(labId, id === 'new' ? '' : id);
   return (
-    <QueryView query={latest} loadingLabel="Loading the system…">
-      {(record) => <SystemForm key={`${record.id}`} labId={labId} record={record} canWrite={canWrite} />}
-    </QueryView>
+    <VersionedEditorLoader id={id} noun="system" query={latest}>
+      {(record) => <SystemForm key={record?.id ?? 'new'} labId={labId} record={record} canWrite={canWrite} />}
+    </VersionedEditorLoader>
   );
 }
 
@@ -52,7 +42,7 @@ function valuesOf(record: SystemRecord | null): SystemFormValues {
 function SystemForm({ labId, record, canWrite }: { labId: string; record: SystemRecord | null; canWrite: boolean }) {
   const form = useForm<SystemFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, getValues, setValue, handleSubmit, reset } = form;
-  const { save, mutation, savedVersion, versions, useVersion } = useVersionedSave(systemsApi, labId, record, '/systems', (saved) => reset({ ...valuesOf(saved), note: '' }));
+  const saver = useVersionedSave(systemsApi, labId, record, '/systems', (saved) => reset({ ...valuesOf(saved), note: '' }));
   const kind = useWatch({ control, name: 'definition.kind' }) as SystemKind;
   const quantity = useWatch({ control, name: 'definition.quantity' });
   // Switching kind keeps what was typed for the other kinds, so switching back restores it.
@@ -67,7 +57,7 @@ function SystemForm({ labId, record, canWrite }: { labId: string; record: System
   };
   const onSave = handleSubmit((values) => {
     const body = { name: values.name, description: values.description ?? '', note: values.note ?? '', definition: values.definition as SystemSpec };
-    save(body);
+    saver.save(body);
   });
   const title = record ? record.name : 'New system';
   return (
@@ -87,24 +77,16 @@ function SystemForm({ labId, record, canWrite }: { labId: string; record: System
           {kind === 'sdof' ? <SdofFields /> : kind === 'modal' ? <ModalFields /> : <PhysicalFields />}
         </Panel>
         <SystemLive />
-        <SaveBar
+        <VersionedEditorFooter
+          saver={saver}
           isNew={!record}
           canWrite={canWrite}
-          busy={mutation.isPending}
-          error={mutation.error}
-          savedVersion={savedVersion}
           noun="system"
+          dirty={form.formState.isDirty}
           onSave={() => void onSave()}
+          onLoad={(d) => setValue('definition', d as SystemSpec, { shouldDirty: true })}
           noteField={<TextInputField control={control} name="note" label="What this version changes" placeholder="e.g. damping from the latest tap test" />}
         />
-        {record ? (
-          <VersionHistory
-            dirty={form.formState.isDirty}
-            versions={versions}
-            useVersion={useVersion}
-            onLoad={(_, definition) => setValue('definition', definition as SystemSpec, { shouldDirty: true })}
-          />
-        ) : null}
       </View>
     </FormProvider>
   );
