@@ -6,24 +6,12 @@ import fs from 'node:fs';
 import path from 'node:path';
 import express, { type ErrorRequestHandler, type Express } from 'express';
 import helmet from 'helmet';
-import type { Auth } from './auth/lucia';
 import { checkOrigin, loadSession } from './auth/middleware';
-import type { Config } from './config';
-import type { Db } from './db/knex';
+import type { AppDeps } from './deps';
 import { AppError } from './errors';
 import type { Logger } from './logger';
 import { healthRoutes } from './routes/health';
 import { v1Routes } from './routes';
-import type { Mailer } from './mail/mailer';
-
-export interface AppDeps {
-  config: Config;
-  db: Db;
-  auth: Auth;
-  logger: Logger;
-  mailer: Mailer;
-  version: string;
-}
 
 export function createApp(deps: AppDeps): Express {
   const app = express();

@@ -38,7 +38,7 @@ export function authRoutes(deps: { db: Db; auth: Auth; limiter: AttemptLimiter }
   openRoute(r, {
     method: 'get', path: '/me', action: 'signed-in', summary: 'The signed-in user, with their labs and roles', response: meResponseSchema,
   }, async (req, res) => {
-    res.json(await describeUser(deps.db, req.user!.id));
+    res.json(await describeUser(deps.db, req.user.id));
   });
   return r;
 }

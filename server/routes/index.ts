@@ -2,7 +2,7 @@
  * Every /api/v1 route, mounted in one place. Add a resource by adding one line here.
  */
 import { Router } from 'express';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { AttemptLimiter } from '../services/sign-in';
 import { auditRoutes } from './audit';
 import { authRoutes } from './auth';

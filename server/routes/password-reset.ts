@@ -1,7 +1,7 @@
 /** Password reset by mail: /api/v1/auth/password-reset and /api/v1/auth/password-reset/confirm. */
 import { Router } from 'express';
 import { passwordResetAnswerSchema, passwordResetConfirmSchema, passwordResetRequestSchema } from '@/shared/api/people';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { openRoute } from '../auth/permissions';
 import { confirmPasswordReset, requestPasswordReset } from '../services/password-reset';
 import { AttemptLimiter } from '../services/sign-in';
