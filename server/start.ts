@@ -13,6 +13,7 @@ import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer, type Mailer } from './mail/mailer';
 import { createPoolExecutor } from './jobs/pool';
 import { createStudyScheduler, type StudyScheduler } from './jobs/scheduler';
+import { openAuditTrail } from './services/audit-trail';
 import { startReviewReminders } from './services/review-reminders';
 import { seedDemoLab } from './seed/demo-lab';
 import { seedDemoWork } from './seed/demo-work';
@@ -31,6 +32,13 @@ export interface RunningServer {
 export async function startServer(config: Config, logger = createLogger(config.logLevel)): Promise<RunningServer> {
   const db = createDb(config.databaseFile);
   await migrate(db);
+  try {
+    // Before the seed: every event, the demo lab's too, is sealed with the key.
+    await openAuditTrail(db, config.audit, { info: (m) => logger.info(m), warn: (m) => logger.warn(m) });
+  } catch (err) {
+    await db.destroy();
+    throw err;
+  }
   if (config.demo.seed && (await seedDemoLab(db, config.demo.password))) logger.info('demo lab seeded');
   // The demo study is computed here (about a second); test servers leave it out (seed/demo-work.ts).
   if (config.demo.seed && (await seedDemoWork(db, { withStudy: config.env !== 'test' }))) logger.info('demo work seeded');

@@ -2,7 +2,8 @@
  * Backup and restore: backupDatabase (what `npm run backup` runs) copies the database while a study
  * is storing runs, and the command itself runs as its own process; the copy is restored into a fresh DATA_DIR, a server starts on it,
  * SQLite's integrity_check answers 'ok', the users, study, runs and uploads of the moment of the
- * backup are there, the audit hash chain verifies, and the study that was running at the backup
+ * backup are there, the audit trail verifies (key and checkpoints brought along; no lab event came
+ * after the backup), and the study that was running at the backup
  * resumes to the very numbers the original server computed.
  */
 import { execFile } from 'node:child_process';
@@ -78,6 +79,9 @@ it('backs up online during a study; the restored copy starts, verifies and resum
   // Restore into a fresh DATA_DIR and start a server on it.
   const target = await restoreDatabase({ dataDir: restoreDir, databaseFile: path.join(restoreDir, 'plumbline.sqlite') }, file);
   expect(target).toBe(path.join(restoreDir, 'plumbline.sqlite'));
+  // The audit key and the checkpoint file live outside the database and the backup: restoring on
+  // another machine brings them from the lab's own copies (docs/approval.md, "The audit trail").
+  for (const f of ['audit-key', 'audit-checkpoints.log']) fs.copyFileSync(path.join(original.config.dataDir, f), path.join(restoreDir, f));
   restored = await startTestServer({ DATA_DIR: restoreDir, STUDY_WORKERS: '2' });
   expect((await restored.db.raw('PRAGMA integrity_check'))[0].integrity_check).toBe('ok');
   expect(Number((await restored.db('users').count({ n: '*' }).first())?.n)).toBe(inBackup.users);
