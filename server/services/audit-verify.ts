@@ -50,17 +50,17 @@ export function checkpointProblem(rows: AuditRow[], mine: Checkpoint[], file: st
   if (mine.length === 0) {
     return rows.length === 0 ? null : { id: null, reason: 'no_checkpoint', detail: `No checkpoint in ${file} records this lab's ${rows.length} entries: the checkpoint file was replaced or cut.` };
   }
-  let lastGood: Checkpoint | null = null;
+  // The lowest place where a checkpoint and the chain disagree, and the last agreement below it.
   let firstDiverging: Checkpoint | null = null;
   let most = mine[0]!;
   for (const c of mine) {
     if (c.events > most.events) most = c;
-    if (c.events > rows.length) continue;
-    if (rows[c.events - 1]!.hash === c.head) {
-      if (!lastGood || c.events > lastGood.events) lastGood = c;
-    } else {
-      firstDiverging ??= c;
-    }
+    if (c.events <= rows.length && rows[c.events - 1]!.hash !== c.head && (!firstDiverging || c.events < firstDiverging.events)) firstDiverging = c;
+  }
+  const limit = firstDiverging?.events ?? Infinity;
+  let lastGood: Checkpoint | null = null;
+  for (const c of mine) {
+    if (c.events < limit && c.events <= rows.length && rows[c.events - 1]!.hash === c.head && (!lastGood || c.events > lastGood.events)) lastGood = c;
   }
   const matched = lastGood?.events ?? 0;
   const after = lastGood ? ` after entry #${rows[matched - 1]!.id}` : ' from its first entry';
