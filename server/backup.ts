@@ -85,7 +85,7 @@ async function main(argv: string[]) {
     console.log(`Restored ${path.resolve(file)} to ${target}. Start the server with the same DATA_DIR.`);
     // The key and the checkpoints stay outside the backup (docs/approval.md, "Backups and restores").
     if (fs.existsSync(config.audit.checkpointFile)) {
-      console.log(`The audit checkpoints in ${config.audit.checkpointFile} remember entries written after this backup: the integrity check will report them as missing.`);
+      console.log(`The audit checkpoints in ${config.audit.checkpointFile} remember any entries written after this backup: the integrity check will report those as missing.`);
     }
     return;
   }
