@@ -8,7 +8,8 @@
  *
  * `npm run restore -- FILE`, with the server stopped: checks the backup (integrity_check, its
  * migrations), then puts it in place of the database file (temp file + rename, the old -wal/-shm
- * removed) and its uploads folder back into DATA_DIR/uploads.
+ * removed) and its uploads folder back into DATA_DIR/uploads. The audit key and checkpoint file are
+ * not part of a backup; after a restore the integrity check names the entries lost (docs/approval.md).
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -82,6 +83,10 @@ async function main(argv: string[]) {
     if (!file) throw new Error('Usage: npm run restore -- FILE   (stop the server first)');
     const target = await restoreDatabase(config, file);
     console.log(`Restored ${path.resolve(file)} to ${target}. Start the server with the same DATA_DIR.`);
+    // The key and the checkpoints stay outside the backup (docs/approval.md, "Backups and restores").
+    if (fs.existsSync(config.audit.checkpointFile)) {
+      console.log(`The audit checkpoints in ${config.audit.checkpointFile} remember any entries written after this backup: the integrity check will report those as missing.`);
+    }
     return;
   }
   const r = await backupDatabase(config);

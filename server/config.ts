@@ -42,6 +42,10 @@ const envSchema = z.object({
   // Behind a reverse proxy: which proxies' X-Forwarded-For to believe (Express's "trust proxy":
   // a hop count, "loopback", or addresses). Unset: none, so a client cannot choose its own address.
   TRUST_PROXY: z.string().min(1).optional(),
+  // The audit key (services/audit-key.ts): as text, or a file (default DATA_DIR/audit-key).
+  AUDIT_KEY: z.string().min(32, 'must be at least 32 characters').optional(),
+  AUDIT_KEY_FILE: z.string().min(1).optional(),
+  AUDIT_CHECKPOINT_FILE: z.string().min(1).optional(),
 });
 
 export interface Config {
@@ -66,6 +70,8 @@ export interface Config {
   /** Old-generation heap limit of each study worker thread, MB; null = V8's default. */
   studyWorkerHeapMb: number | null;
   webDir: string;
+  /** The audit key (text, or null to use keyFile) and the checkpoint file, outside the database. */
+  audit: { key: string | null; keyFile: string; checkpointFile: string };
 }
 
 export class ConfigError extends Error {}
@@ -81,6 +87,9 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     throw new ConfigError(`Invalid configuration:\n  ${lines.join('\n  ')}`);
   }
   const e = parsed.data;
+  if (e.AUDIT_KEY !== undefined && e.AUDIT_KEY_FILE !== undefined) {
+    throw new ConfigError('Invalid configuration:\n  AUDIT_KEY and AUDIT_KEY_FILE are both set: give the audit key one way only.');
+  }
   const dataDir = path.resolve(cwd, e.DATA_DIR);
   const smtp = e.SMTP_HOST
     ? { host: e.SMTP_HOST, port: e.SMTP_PORT ?? 587, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD }
@@ -100,6 +109,11 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     studyWorkers: e.STUDY_WORKERS,
     studyWorkerHeapMb: e.STUDY_WORKER_HEAP_MB ?? null,
     webDir: path.resolve(cwd, e.WEB_DIR),
+    audit: {
+      key: e.AUDIT_KEY ?? null,
+      keyFile: path.resolve(dataDir, e.AUDIT_KEY_FILE ?? 'audit-key'),
+      checkpointFile: path.resolve(dataDir, e.AUDIT_CHECKPOINT_FILE ?? 'audit-checkpoints.log'),
+    },
   };
 }
 

@@ -15,6 +15,7 @@ import { createMailer, type Mailer } from './mail/mailer';
 import { createPoolExecutor } from './jobs/pool';
 import { createStudyScheduler, type StudyScheduler } from './jobs/scheduler';
 import { checkProductionSafety } from './services/production-checks';
+import { openAuditTrail } from './services/audit-trail';
 import { startReviewReminders } from './services/review-reminders';
 import { seedDemoLab } from './seed/demo-lab';
 import { seedDemoWork } from './seed/demo-work';
@@ -35,6 +36,8 @@ export async function startServer(config: Config, logger = createLogger(config.l
   await migrate(db);
   try {
     await checkProductionSafety(db, config);
+    // Before the seed: every event, the demo lab's too, is sealed with the key.
+    await openAuditTrail(db, config.audit, { info: (m) => logger.info(m), warn: (m) => logger.warn(m) });
   } catch (err) {
     await db.destroy();
     throw err;

@@ -180,6 +180,15 @@ export function findDecision(db: Db, submissionId: string): Promise<DecisionRow 
     .first('d.*', 'u.display_name as reviewer_name');
 }
 
+/** Every decision of a lab, oldest first (the audit trail's check re-computes each signature). */
+export function labDecisions(db: Db, labId: string): Promise<DecisionRow[]> {
+  return db({ d: 'review_decisions' })
+    .join({ u: 'users' }, 'u.id', 'd.reviewer_id')
+    .where('d.lab_id', labId)
+    .orderBy(['d.decided_at', 'd.id'])
+    .select('d.*', 'u.display_name as reviewer_name');
+}
+
 export async function insertDecision(trx: Db, d: Omit<DecisionRow, 'reviewer_name'>): Promise<void> {
   await trx('review_decisions').insert(d);
 }

@@ -79,3 +79,20 @@ export async function listAudit(
 export function chainRows(db: Db, labId: string | null): Promise<AuditRow[]> {
   return chain(db, labId).orderBy('id', 'asc').select('*');
 }
+
+/** How many events a lab's chain holds. */
+export async function chainLength(db: Db, labId: string | null): Promise<number> {
+  const row = await chain(db, labId).count({ n: '*' }).first();
+  return Number(row?.n ?? 0);
+}
+
+/** The labs (and null, for lab-less events) that have a chain. */
+export async function chainLabs(db: Db): Promise<(string | null)[]> {
+  const rows = await db('audit_events').distinct('lab_id');
+  return rows.map((r: { lab_id: string | null }) => r.lab_id);
+}
+
+/** The newest event of a lab's chain. */
+export function chainHead(db: Db, labId: string | null): Promise<AuditRow | undefined> {
+  return chain(db, labId).orderBy('id', 'desc').first('*');
+}

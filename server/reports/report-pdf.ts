@@ -7,7 +7,7 @@
  * report id. The document's dates are the report's creation time, so a report renders the same.
  */
 import PDFDocument from 'pdfkit';
-import type { ReportContent, ReportRecord } from '@/shared/api/approval';
+import { auditTrailLine, type ReportContent, type ReportRecord, type ReportTrail } from '@/shared/api/approval';
 import { registerFonts } from './pdf-fonts';
 import { BRASS, drawPlot, ESTIMATOR_COLOURS, INK, MOSS, type PlotSpec } from './pdf-plots';
 
@@ -135,7 +135,7 @@ function studySection(doc: Doc, study: ReportContent['studies'][number], estimat
 }
 
 /** Renders the report; resolves with the PDF bytes. */
-export function renderReportPdf(record: ReportRecord, content: ReportContent): Promise<Buffer> {
+export function renderReportPdf(record: ReportRecord, content: ReportContent, trail: ReportTrail | null = null): Promise<Buffer> {
   const created = new Date(record.createdAt);
   const doc = new PDFDocument({
     size: 'A4', margin: MARGIN, bufferPages: true,
@@ -156,6 +156,7 @@ export function renderReportPdf(record: ReportRecord, content: ReportContent): P
   field(doc, 'content sha256', record.sha256, true);
   field(doc, 'made', iso(record.createdAt));
   field(doc, 'engine version', content.engineVersion, true);
+  field(doc, 'audit trail', auditTrailLine(trail).replace(/^audit trail: /, ''), true);
 
   heading(doc, 'Scope and purpose');
   para(doc, content.purpose);

@@ -4,7 +4,7 @@ import { auditListQuerySchema, auditListSchema, auditVerifySchema, type AuditEve
 import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { chainRows, listAudit, type AuditRow } from '../db/audit';
-import { verifyAuditChain } from '../services/audit';
+import { verifyAuditTrail } from '../services/audit-verify';
 import { parseBody } from './parse';
 
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
@@ -50,9 +50,9 @@ export function auditRoutes(deps: AppDeps): Router {
   });
   labRoute(r, db, {
     method: 'get', path: '/labs/:labId/audit/verify', action: 'audit.read',
-    summary: "Recompute the lab's hash chain and report the first broken link", response: auditVerifySchema,
+    summary: "Check the lab's trail (keyed chain, checkpoints outside the database, every signature) and report the first problem", response: auditVerifySchema,
   }, async (req, res) => {
-    res.json(await verifyAuditChain(db, req.lab.id));
+    res.json(await verifyAuditTrail(db, req.lab.id));
   });
   labRoute(r, db, {
     method: 'get', path: '/labs/:labId/audit/export', action: 'audit.export',

@@ -11,13 +11,21 @@
  * Called with the plain `db` it opens its own transaction. Events without a lab (a failed sign-in)
  * pass `labId: null`.
  *
- * Tamper evidence: each lab's events form a chain. hash = sha256_hex(prev_hash + canonicalJson(row))
+ * Tamper evidence: each lab's events form a chain, sealed with the audit key (audit-key.ts), a
+ * secret kept outside the database:
+ *   hash = HMAC-SHA-256(key, prev_hash + canonicalJson(row))
  * where row is every column but `hash` (prev_hash "" for the first event) and canonicalJson is
- * JSON with object keys sorted at every level. The table's triggers refuse UPDATE and DELETE.
+ * JSON with object keys sorted at every level. Events stored before the key existed kept their
+ * plain sha256 (`legacyAuditHash`); the first start with the key sealed them under one keyed
+ * `audit.seal` event (audit-trail.ts). After each commit a checkpoint of the lab's chain goes to a
+ * file outside SQLite (audit-checkpoints.ts). The table's triggers refuse UPDATE and DELETE.
+ * Verification: audit-verify.ts.
  */
-import { createHash } from 'node:crypto';
+import { createHash, createHmac } from 'node:crypto';
+import { chainLength, insertAuditRow, lastChainHash, nextAuditId, type AuditRow } from '../db/audit';
+import { databaseIdentity, onCommit } from '../db/commit-hooks';
 import type { Db } from '../db/knex';
-import { chainRows, insertAuditRow, lastChainHash, nextAuditId, type AuditRow } from '../db/audit';
+import type { CheckpointLog } from './audit-checkpoints';
 
 export interface AuditEvent {
   labId: string | null;
@@ -50,8 +58,8 @@ function sortKeys(value: unknown): unknown {
   return value;
 }
 
-/** sha256 over prev_hash + the canonical JSON of the row without its hash (see the top). */
-export function hashAuditRow(row: Omit<AuditRow, 'hash'>): string {
+/** The text a hash is taken over: prev_hash + the canonical JSON of the row without its hash. */
+function hashedText(row: Omit<AuditRow, 'hash'>): string {
   const { id, lab_id, actor_user_id, action, target_type, target_id, before_json, after_json, at, prev_hash } = row;
   const body = canonicalJson({
     id: Number(id),
@@ -65,13 +73,43 @@ export function hashAuditRow(row: Omit<AuditRow, 'hash'>): string {
     at: Number(at),
     prev_hash,
   });
-  return createHash('sha256').update((prev_hash ?? '') + body).digest('hex');
+  return (prev_hash ?? '') + body;
+}
+
+/** The keyed hash of an event: HMAC-SHA-256 with the audit key (see the top). */
+export function sealAuditRow(key: Buffer, row: Omit<AuditRow, 'hash'>): string {
+  return createHmac('sha256', key).update(hashedText(row)).digest('hex');
+}
+
+/** The plain sha256 events carried before the audit key existed (kept to verify them). */
+export function legacyAuditHash(row: Omit<AuditRow, 'hash'>): string {
+  return createHash('sha256').update(hashedText(row)).digest('hex');
+}
+
+/** The key and the checkpoint file of one database. */
+export interface AuditTrail {
+  key: Buffer;
+  checkpoints: CheckpointLog;
+}
+
+const trails = new WeakMap<object, AuditTrail>();
+
+/** Binds a database (and every transaction on it) to its audit key and checkpoint file. */
+export function bindAuditTrail(db: Db, trail: AuditTrail): void {
+  trails.set(databaseIdentity(db), trail);
+}
+
+export function auditTrailOf(db: Db): AuditTrail {
+  const trail = trails.get(databaseIdentity(db));
+  if (!trail) throw new Error('No audit key is bound to this database: the server loads it at start (openAuditTrail).');
+  return trail;
 }
 
 /** Appends one event to its lab's chain; returns the stored row. */
 export async function recordAudit(db: Db, event: AuditEvent): Promise<AuditRow> {
   // The read of the chain's head and the insert must not interleave with another append.
   if (!db.isTransaction) return db.transaction((trx) => recordAudit(trx, event));
+  const trail = auditTrailOf(db);
   const labId = event.labId ?? null;
   const prev = await lastChainHash(db, labId);
   const draft: Omit<AuditRow, 'hash'> = {
@@ -86,27 +124,9 @@ export async function recordAudit(db: Db, event: AuditEvent): Promise<AuditRow> 
     at: event.at ?? Date.now(),
     prev_hash: prev,
   };
-  const row: AuditRow = { ...draft, hash: hashAuditRow(draft) };
+  const row: AuditRow = { ...draft, hash: sealAuditRow(trail.key, draft) };
   await insertAuditRow(db, row);
+  const events = await chainLength(db, labId);
+  onCommit(db, `audit-checkpoint:${JSON.stringify(labId)}`, () => trail.checkpoints.append(labId, events, row.hash));
   return row;
-}
-
-export interface ChainVerdict {
-  ok: boolean;
-  checked: number;
-  /** The first event whose hash or link does not hold, and why. */
-  firstBroken: { id: number; reason: 'hash_mismatch' | 'link_mismatch' } | null;
-}
-
-/** Recomputes a lab's chain from its first event and reports the first broken link. */
-export async function verifyAuditChain(db: Db, labId: string | null): Promise<ChainVerdict> {
-  const rows = await chainRows(db, labId);
-  let prev: string | null = null;
-  for (let i = 0; i < rows.length; i++) {
-    const row = rows[i]!;
-    if ((row.prev_hash ?? null) !== prev) return { ok: false, checked: i + 1, firstBroken: { id: Number(row.id), reason: 'link_mismatch' } };
-    if (hashAuditRow(row) !== row.hash) return { ok: false, checked: i + 1, firstBroken: { id: Number(row.id), reason: 'hash_mismatch' } };
-    prev = row.hash;
-  }
-  return { ok: true, checked: rows.length, firstBroken: null };
 }

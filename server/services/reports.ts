@@ -5,14 +5,14 @@
  * report made again keeps its id. A new content is recorded in the audit trail, and so is every
  * PDF download (an export).
  */
-import type { Report, ReportContent, ReportRecord } from '@/shared/api/approval';
+import type { Report, ReportContent, ReportRecord, ReportTrail } from '@/shared/api/approval';
 import type { Db } from '../db/knex';
 import { findReport, findReportByContent, insertReport, type ReportRow } from '../db/reports';
 import { notFound } from '../errors';
 import { sha256Hex } from '../reports/evidence';
 import { standardReportContent, studyReportContent } from '../reports/report-content';
 import { renderReportPdf } from '../reports/report-pdf';
-import { canonicalJson, recordAudit } from './audit';
+import { auditTrailOf, canonicalJson, recordAudit } from './audit';
 
 export type ReportKind = 'study' | 'standard';
 
@@ -40,16 +40,23 @@ async function registered(db: Db, labId: string, userId: string, kind: ReportKin
   return recordOf((await findReport(db, labId, id))!);
 }
 
-/** The report of a study or a standard, registered. */
+/** The lab's newest audit checkpoint (the report prints it; see reportTrailSchema). */
+function trailOf(db: Db, labId: string): ReportTrail | null {
+  const c = auditTrailOf(db).checkpoints.latest(labId);
+  return c ? { events: c.events, head: c.head, checkpointAt: c.at } : null;
+}
+
+/** The report of a study or a standard, registered, with the trail as it stands after that. */
 export async function makeReport(db: Db, labId: string, userId: string, kind: ReportKind, targetId: string): Promise<Report> {
   const content = kind === 'study' ? await studyReportContent(db, labId, targetId) : await standardReportContent(db, labId, targetId);
-  return { report: await registered(db, labId, userId, kind, targetId, content), content };
+  const report = await registered(db, labId, userId, kind, targetId, content);
+  return { report, content, trail: trailOf(db, labId) };
 }
 
 /** The report as a PDF; the download is an export in the audit trail. */
 export async function makeReportPdf(db: Db, labId: string, userId: string, kind: ReportKind, targetId: string): Promise<{ report: ReportRecord; pdf: Buffer }> {
-  const { report, content } = await makeReport(db, labId, userId, kind, targetId);
-  const pdf = await renderReportPdf(report, content);
+  const { report, content, trail } = await makeReport(db, labId, userId, kind, targetId);
+  const pdf = await renderReportPdf(report, content, trail);
   await recordAudit(db, {
     labId, actorUserId: userId, action: 'reports.export', targetType: 'report', targetId: report.id,
     after: { kind, targetId, format: 'pdf', sha256: report.sha256, bytes: pdf.length },

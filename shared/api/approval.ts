@@ -350,7 +350,21 @@ export const reportContentSchema = z.object({
 });
 export type ReportContent = z.infer<typeof reportContentSchema>;
 
-export const reportSchema = z.object({ report: reportRecordSchema, content: reportContentSchema });
+/**
+ * The lab's audit trail when the report was made: its newest checkpoint outside the database. Kept
+ * beside the content, not in it, so the content's sha256 stays the same when the trail grows.
+ */
+export const reportTrailSchema = z.object({ events: z.number().int(), head: z.string(), checkpointAt: millis });
+export type ReportTrail = z.infer<typeof reportTrailSchema>;
+
+/** The report's line about the trail: "audit trail: N events, head <hash>, checkpoint <time>". */
+export function auditTrailLine(trail: ReportTrail | null): string {
+  if (!trail) return 'audit trail: no checkpoint recorded yet';
+  const at = new Date(trail.checkpointAt).toISOString().slice(0, 19).replace('T', ' ');
+  return `audit trail: ${trail.events} events, head ${trail.head}, checkpoint ${at} UTC`;
+}
+
+export const reportSchema = z.object({ report: reportRecordSchema, content: reportContentSchema, trail: reportTrailSchema.nullable().default(null) });
 export type Report = z.infer<typeof reportSchema>;
 
 // ---- re-verification -------------------------------------------------------------------------

@@ -192,9 +192,30 @@ export const auditEventSchema = z.object({
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 export const auditListSchema = pageOf(auditEventSchema);
 
+/** Why the trail does not hold (the first problem found, in the order the check runs). */
+export const auditBreakReasonSchema = z.enum([
+  'hash_mismatch', // an entry's contents do not match its keyed hash
+  'link_mismatch', // an entry does not point to the one before it
+  'seal_mismatch', // the event that sealed the entries from before the audit key does not hold
+  'checkpoint_file', // a line of the checkpoint file is not sealed or not linked
+  'no_checkpoint', // the lab has entries but no checkpoint records them
+  'checkpoint_mismatch', // an entry is not the one a checkpoint recorded at its place
+  'missing_events', // the checkpoints recorded more entries than the database holds
+  'signature_mismatch', // a signature does not re-compute or does not match its decision entry
+]);
+export type AuditBreakReason = z.infer<typeof auditBreakReasonSchema>;
+
 export const auditVerifySchema = z.object({
   ok: z.boolean(),
+  /** Entries of the lab's chain checked (up to the first broken one). */
   checked: z.number().int(),
-  firstBroken: z.object({ id: z.number().int(), reason: z.enum(['hash_mismatch', 'link_mismatch']) }).nullable(),
+  /** The first problem: the entry it is at (when there is one) and what broke, in plain words. */
+  firstBroken: z.object({ id: z.number().int().nullable(), reason: auditBreakReasonSchema, detail: z.string() }).nullable(),
+  /** Entries the checkpoints recorded that are not in the database's chain any more. */
+  missing: z.number().int(),
+  /** The lab's newest checkpoint in the checkpoint file. */
+  checkpoint: z.object({ events: z.number().int(), head: z.string(), at: millis }).nullable(),
+  /** Signatures (approvals and returns) re-computed and matched with their decision entries. */
+  signatures: z.number().int(),
 });
 export type AuditVerify = z.infer<typeof auditVerifySchema>;

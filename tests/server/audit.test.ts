@@ -1,10 +1,12 @@
 /**
- * The audit trail over a real SQLite file: the hash chain verifies, a row changed with raw SQL
- * (after dropping the trigger, as an attacker with file access could) is detected at its id, and
- * the triggers refuse UPDATE and DELETE.
+ * The audit trail over a real SQLite file: the keyed hash chain verifies, a row changed with raw
+ * SQL (after dropping the trigger, as an attacker with file access could) is detected at its id,
+ * and the triggers refuse UPDATE and DELETE. Cuts, checkpoints and signatures: audit-cuts.test.ts.
  */
-import { createHash } from 'node:crypto';
-import { canonicalJson, hashAuditRow, recordAudit, verifyAuditChain } from '@/server/services/audit';
+import { createHmac } from 'node:crypto';
+import fs from 'node:fs';
+import { canonicalJson, legacyAuditHash, recordAudit, sealAuditRow } from '@/server/services/audit';
+import { verifyAuditTrail } from '@/server/services/audit-verify';
 import { startTestServer, type TestServer } from './helpers';
 
 let t: TestServer;
@@ -23,15 +25,17 @@ describe('canonical JSON and the hash', () => {
     expect(canonicalJson({ b: 1, a: { d: [{ z: 1, y: 2 }], c: undefined } })).toBe('{"a":{"d":[{"y":2,"z":1}]},"b":1}');
   });
 
-  it('is sha256 over prev_hash + canonical row, recomputed here with node:crypto', () => {
+  it('is HMAC-SHA-256 with the audit key over prev_hash + canonical row, recomputed here with node:crypto', () => {
     const row = {
       id: 7, lab_id: 'L', actor_user_id: 'U', action: 'x.y', target_type: 't', target_id: null,
       before_json: null, after_json: '{"a":1}', at: 1000, prev_hash: 'abc',
     };
-    const expected = createHash('sha256')
+    const key = Buffer.from(fs.readFileSync(t.config.audit.keyFile, 'utf8').trim(), 'utf8');
+    const expected = createHmac('sha256', key)
       .update('abc{"action":"x.y","actor_user_id":"U","after_json":"{\\"a\\":1}","at":1000,"before_json":null,"id":7,"lab_id":"L","prev_hash":"abc","target_id":null,"target_type":"t"}')
       .digest('hex');
-    expect(hashAuditRow(row)).toBe(expected);
+    expect(sealAuditRow(key, row)).toBe(expected);
+    expect(legacyAuditHash(row)).not.toBe(expected);
   });
 });
 
@@ -44,9 +48,9 @@ describe('the chain in the database', () => {
     expect(other.prev_hash === e1.hash).toBe(false);
     const stored = await t.db('audit_events').where({ id: e2.id }).first();
     expect(stored.before_json).toBe('{"n":1}');
-    expect(stored.hash).toBe(hashAuditRow(stored));
-    expect(await verifyAuditChain(t.db, t.labId)).toMatchObject({ ok: true, firstBroken: null });
-    expect((await verifyAuditChain(t.db, null)).ok).toBe(true);
+    expect(stored.hash).not.toBe(legacyAuditHash(stored));
+    expect(await verifyAuditTrail(t.db, t.labId)).toMatchObject({ ok: true, firstBroken: null });
+    expect((await verifyAuditTrail(t.db, null)).ok).toBe(true);
   });
 
   it('keeps the chain whole under concurrent appends', async () => {
@@ -55,7 +59,9 @@ describe('the chain in the database', () => {
         recordAudit(t.db, { labId: t.labId, actorUserId: null, action: 'test.burst', targetType: 'thing', targetId: String(i) }),
       ),
     );
-    expect((await verifyAuditChain(t.db, t.labId)).ok).toBe(true);
+    const verdict = await verifyAuditTrail(t.db, t.labId);
+    expect(verdict.ok).toBe(true);
+    expect(verdict.checkpoint?.events).toBe(verdict.checked);
   });
 
   it('refuses UPDATE and DELETE through the triggers', async () => {
@@ -132,14 +138,22 @@ describe('the audit trail over HTTP', () => {
     }
     const broken = await auditor.get(`/api/v1/labs/${t.labId}/audit/verify`).expect(200);
     expect(broken.body).toMatchObject({ ok: false, firstBroken: { id: Number(victim.id), reason: 'hash_mismatch' } });
+    expect(broken.body.firstBroken.detail).toBe(`Entry #${victim.id} does not match its keyed hash: it was changed after it was written, or its hash was made without the audit key.`);
 
-    // Rewriting the hash too (to hide the edit) breaks the link of the next event instead.
+    // Rewriting its hash as plain sha256 (no key) still fails at the entry itself; rewriting it
+    // with the key breaks the link of the next event instead.
     const next = await t.db('audit_events').where({ lab_id: t.labId }).where('id', '>', victim.id).orderBy('id').first();
     const forged = await t.db('audit_events').where({ id: victim.id }).first();
-    await t.db.raw('DROP TRIGGER audit_events_no_update');
-    await t.db.raw('UPDATE audit_events SET hash = ? WHERE id = ?', [hashAuditRow(forged), victim.id]);
-    await t.db.raw(`CREATE TRIGGER audit_events_no_update BEFORE UPDATE ON audit_events
-      BEGIN SELECT RAISE(ABORT, 'audit_events is append-only: UPDATE refused'); END`);
-    expect(await verifyAuditChain(t.db, t.labId)).toMatchObject({ ok: false, firstBroken: { id: Number(next.id), reason: 'link_mismatch' } });
+    const key = Buffer.from(fs.readFileSync(t.config.audit.keyFile, 'utf8').trim(), 'utf8');
+    for (const [hash, expected] of [
+      [legacyAuditHash(forged), { id: Number(victim.id), reason: 'hash_mismatch' }],
+      [sealAuditRow(key, forged), { id: Number(next.id), reason: 'link_mismatch' }],
+    ] as const) {
+      await t.db.raw('DROP TRIGGER audit_events_no_update');
+      await t.db.raw('UPDATE audit_events SET hash = ? WHERE id = ?', [hash, victim.id]);
+      await t.db.raw(`CREATE TRIGGER audit_events_no_update BEFORE UPDATE ON audit_events
+        BEGIN SELECT RAISE(ABORT, 'audit_events is append-only: UPDATE refused'); END`);
+      expect(await verifyAuditTrail(t.db, t.labId)).toMatchObject({ ok: false, firstBroken: expected });
+    }
   });
 });

@@ -2,7 +2,8 @@
  * Backup and restore: backupDatabase (what `npm run backup` runs) copies the database while a study
  * is storing runs, and the command itself runs as its own process; the copy is restored into a fresh DATA_DIR, a server starts on it,
  * SQLite's integrity_check answers 'ok', the users, study, runs and uploads of the moment of the
- * backup are there, the audit hash chain verifies, and the study that was running at the backup
+ * backup are there, the audit trail (key and checkpoint file brought along) names the entries lost
+ * since the backup, and the study that was running at the backup
  * resumes to the very numbers the original server computed.
  */
 import { execFile } from 'node:child_process';
@@ -78,18 +79,27 @@ it('backs up online during a study; the restored copy starts, verifies and resum
   // Restore into a fresh DATA_DIR and start a server on it.
   const target = await restoreDatabase({ dataDir: restoreDir, databaseFile: path.join(restoreDir, 'plumbline.sqlite') }, file);
   expect(target).toBe(path.join(restoreDir, 'plumbline.sqlite'));
+  // The audit key and the checkpoint file live outside the database and the backup: restoring on
+  // another machine brings them from the lab's own copies (docs/approval.md, "The audit trail").
+  for (const f of ['audit-key', 'audit-checkpoints.log']) fs.copyFileSync(path.join(original.config.dataDir, f), path.join(restoreDir, f));
   restored = await startTestServer({ DATA_DIR: restoreDir, STUDY_WORKERS: '2' });
   expect((await restored.db.raw('PRAGMA integrity_check'))[0].integrity_check).toBe('ok');
   expect(Number((await restored.db('users').count({ n: '*' }).first())?.n)).toBe(inBackup.users);
   const analyst2 = await restored.signIn('analyst'); // the users and their passwords came back
   const auditor2 = await restored.signIn('auditor');
-  const verify = (await auditor2.get(`${lab}/audit/verify`).expect(200)).body;
-  expect(verify).toMatchObject({ ok: true, firstBroken: null });
-  expect(verify.checked).toBeGreaterThanOrEqual(inBackup.audit);
   await analyst2.get(`${lab}/uploads/${uploadId.upload?.id ?? uploadId.id}/result`).expect(200); // row and file both restored
 
   // The study running at the backup resumes on the restored server to the original's numbers.
   expect((await waitForStudy(analyst2, `${lab}/studies/${study}`, 60_000)).status).toBe('finished');
+
+  // The trail shows the restore honestly: the original's entries after the backup (its study's
+  // end) are gone, and the restored server wrote its own entry at that place.
+  const laterOnOriginal = Number((await original.db('audit_events').where({ lab_id: original.labId }).count({ n: '*' }).first())?.n) - inBackup.audit;
+  expect(laterOnOriginal).toBeGreaterThanOrEqual(1); // at least the study's end, after the mid-study backup
+  const firstNew = await restored.db('audit_events').where({ lab_id: original.labId }).orderBy('id').offset(inBackup.audit).first('id');
+  const verify = (await auditor2.get(`${lab}/audit/verify`).expect(200)).body;
+  expect(verify).toMatchObject({ ok: false, missing: laterOnOriginal, firstBroken: { id: Number(firstNew.id), reason: 'checkpoint_mismatch' } });
+  expect(verify.firstBroken.detail).toContain(`or an older backup was restored`);
   const results = async (agent: typeof analyst) => (await agent.get(`${lab}/studies/${study}/results`).expect(200)).body;
   expect(await results(analyst2)).toEqual(await results(analyst));
   const blobs = async (t: TestServer) =>

@@ -32,6 +32,7 @@ describe('config', () => {
     ['PUBLIC_URL', 'not a url', /PUBLIC_URL="not a url"/],
     ['DEMO_PASSWORD', 'short', /DEMO_PASSWORD="short": must be at least 12 characters/],
     ['LOG_LEVEL', 'loud', /LOG_LEVEL="loud"/],
+    ['AUDIT_KEY', 'too-short', /AUDIT_KEY="too-short": must be at least 32 characters/],
   ])('%s=%s stops with a message naming it', (name, value, pattern) => {
     expect(() => loadConfig({ [name]: value })).toThrow(ConfigError);
     expect(() => loadConfig({ [name]: value })).toThrow(pattern);
@@ -43,6 +44,12 @@ describe('config', () => {
     expect(c.databaseFile).toBe('/srv/lab/data/plumbline.sqlite');
     expect(c.mail.smtp).toBeNull();
     expect(c.publicUrl).toBe('http://localhost:8080');
+    expect(c.audit).toEqual({ key: null, keyFile: '/srv/lab/data/audit-key', checkpointFile: '/srv/lab/data/audit-checkpoints.log' });
+  });
+
+  it('takes the audit key one way only', () => {
+    expect(() => loadConfig({ AUDIT_KEY: 'k'.repeat(40), AUDIT_KEY_FILE: '/etc/plumbline/key' })).toThrow(/AUDIT_KEY and AUDIT_KEY_FILE are both set/);
+    expect(loadConfig({ AUDIT_KEY_FILE: '/etc/plumbline/key' }, '/srv/lab').audit.keyFile).toBe('/etc/plumbline/key');
   });
 });
 

@@ -164,7 +164,7 @@ describe("a study's report as PDF", () => {
   let pdf: Buffer;
   let text: string;
   let pages: number;
-  let json: { report: { id: string; sha256: string }; content: Record<string, any> }; // eslint-disable-line @typescript-eslint/no-explicit-any
+  let json: { report: { id: string; sha256: string }; content: Record<string, any>; trail: { events: number; head: string; checkpointAt: number } }; // eslint-disable-line @typescript-eslint/no-explicit-any
 
   beforeAll(async () => {
     json = (await as.auditor.get(`${w.lab}/reports/study/${studyId}`).expect(200)).body;
@@ -184,6 +184,13 @@ describe("a study's report as PDF", () => {
     }
     expect(text.match(/\bPASS\b/g)!.length).toBeGreaterThanOrEqual(8); // 4 criteria × 2 scenarios, in words
     expect(text).not.toMatch(/\bFAIL\b/);
+  });
+
+  it('prints the audit trail as its newest checkpoint stood: events, head and time', async () => {
+    const chain = await t.db('audit_events').where({ lab_id: t.labId }).orderBy('id').pluck('hash');
+    expect(chain[json.trail.events - 1]).toBe(json.trail.head);
+    const at = new Date(json.trail.checkpointAt).toISOString().slice(0, 19).replace('T', ' ');
+    expect(text.replace(/\s+/g, ' ')).toContain(`audit trail ${json.trail.events} events, head ${json.trail.head}, checkpoint ${at} UTC`);
   });
 
   it('prints the observed figure of every criterion as the JSON holds it', () => {

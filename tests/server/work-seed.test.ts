@@ -9,6 +9,7 @@ import path from 'node:path';
 import { createDb, migrate, type Db } from '@/server/db/knex';
 import { seedDemoLab } from '@/server/seed/demo-lab';
 import { DEMO_STUDY, DEMO_SYSTEMS, seedDemoWork } from '@/server/seed/demo-work';
+import { openAuditTrail } from '@/server/services/audit-trail';
 import { getStudyResults } from '@/server/services/study-results';
 
 let dir: string;
@@ -18,6 +19,8 @@ beforeAll(async () => {
   dir = fs.mkdtempSync(path.join(os.tmpdir(), 'plumbline-seed-'));
   db = createDb(path.join(dir, 'seed.sqlite'));
   await migrate(db);
+  const quiet = { info: () => undefined, warn: () => undefined };
+  await openAuditTrail(db, { key: null, keyFile: path.join(dir, 'audit-key'), checkpointFile: path.join(dir, 'audit-checkpoints.log') }, quiet);
   await seedDemoLab(db, 'seed-test-password-2026');
 });
 afterAll(async () => {

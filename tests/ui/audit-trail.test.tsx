@@ -16,39 +16,55 @@ beforeEach(() => {
 const trail = { ...page([auditEvent(3, 'studies.finish'), auditEvent(2, 'studies.start')]), limit: 25 };
 
 describe('audit trail', () => {
-  test('an intact chain is said plainly, with the count checked, beside the entries and the export', async () => {
+  test('an intact trail is said plainly, with the count, the checkpoint and the signatures, beside the entries and the export', async () => {
     installEvidenceApi({
       ...session(meAs('auditor')),
-      [`GET ${lab('/audit/verify')}`]: ok({ ok: true, checked: 42, firstBroken: null }),
+      [`GET ${lab('/audit/verify')}`]: ok({ ok: true, checked: 42, firstBroken: null, missing: 0, checkpoint: { events: 42, head: 'ab12cd34ef56ab78cd90ef12ab34cd56', at: Date.UTC(2026, 11, 5, 9, 30) }, signatures: 3 }),
       [`GET ${lab('/audit')}`]: ok(trail),
       [`GET ${lab('/members')}`]: ok(page([])),
     });
     await renderApp('/audit');
-    const result = screen.getByTestId('integrity-result');
+    const result = await screen.findByTestId('integrity-result');
     expect(result.textContent).toContain('Intact');
-    expect(result.textContent).toContain('all 42 entries were checked');
+    expect(result.textContent).toContain('The trail is intact: all 42 entries were checked against their keyed hashes.');
+    expect(result.textContent).toContain('The newest checkpoint outside the database (2026-12-05 09:30 UTC) records 42 entries, head ab12cd34ef56ab78…');
+    expect(result.textContent).toContain('3 signatures re-computed and matched with the trail.');
     expect(screen.getByTestId('audit-list').textContent).toContain('studies.finish');
     expect(screen.getByTestId('audit-count').textContent).toBe('Entries 1–2 of 2');
     expect(screen.getByTestId('audit-export').getAttribute('href')).toBe(lab('/audit/export'));
   });
 
-  test('a broken chain names the first broken entry and why, with a word and not colour alone', async () => {
+  test('a broken trail names the first broken entry and what broke, with a word and not colour alone', async () => {
+    const detail = 'Entry #9 does not match its keyed hash: it was changed after it was written, or its hash was made without the audit key.';
     installEvidenceApi({
       ...session(meAs('admin')),
-      [`GET ${lab('/audit/verify')}`]: ok({ ok: false, checked: 17, firstBroken: { id: 9, reason: 'hash_mismatch' } }),
+      [`GET ${lab('/audit/verify')}`]: ok({ ok: false, checked: 9, firstBroken: { id: 9, reason: 'hash_mismatch', detail }, missing: 0, checkpoint: null, signatures: 0 }),
       [`GET ${lab('/audit')}`]: ok(trail),
       [`GET ${lab('/members')}`]: ok(page([])),
     });
     await renderApp('/audit');
-    const result = screen.getByTestId('integrity-result');
+    const result = await screen.findByTestId('integrity-result');
     expect(result.textContent).toContain('Broken');
-    expect(result.textContent).toContain('broken at entry 9: its contents no longer match its stored hash');
+    expect(result.textContent).toContain(`The trail is broken at entry 9: an entry was changed. ${detail}`);
+  });
+
+  test('entries cut from the end are named by their count, with no entry to point at', async () => {
+    const detail = 'The checkpoint of 2026-12-05 09:30:00 UTC recorded 42 entries, but the database holds 40: the last 2 are missing (removed, or an older backup was restored).';
+    installEvidenceApi({
+      ...session(meAs('auditor')),
+      [`GET ${lab('/audit/verify')}`]: ok({ ok: false, checked: 40, firstBroken: { id: null, reason: 'missing_events', detail }, missing: 2, checkpoint: { events: 42, head: 'ff', at: Date.UTC(2026, 11, 5, 9, 30) }, signatures: 0 }),
+      [`GET ${lab('/audit')}`]: ok(trail),
+      [`GET ${lab('/members')}`]: ok(page([])),
+    });
+    await renderApp('/audit');
+    const result = await screen.findByTestId('integrity-result');
+    expect(result.textContent).toContain(`BrokenThe trail is broken: entries are missing at the end. ${detail}`);
   });
 
   test('filters go to the server; a day that is not YYYY-MM-DD is refused first', async () => {
     const api = installEvidenceApi({
       ...session(meAs('auditor')),
-      [`GET ${lab('/audit/verify')}`]: ok({ ok: true, checked: 2, firstBroken: null }),
+      [`GET ${lab('/audit/verify')}`]: ok({ ok: true, checked: 2, firstBroken: null, missing: 0, checkpoint: null, signatures: 0 }),
       [`GET ${lab('/audit')}`]: ok(trail),
       [`GET ${lab('/members')}`]: ok(page([{ userId: 'user-analyst', email: 'analyst@harborridge.test', displayName: 'Tomas Lindqvist', role: 'analyst', joinedAt: 1 }])),
     });
@@ -79,7 +95,7 @@ describe('audit trail', () => {
     await typeInto('Action', 'studies.start');
     expect(await who('')).toBeNull();
     expect(api.called('GET', lab('/audit')).at(-1)!.query.get('action')).toBe('studies.start');
-  });
+  }, 20_000); // many typed inputs and presses: slow on a loaded machine, not a timed check
 
   test('an analyst is told the trail is not for their role, and nothing is asked of the server', async () => {
     const api = installEvidenceApi({ ...session(meAs('analyst')) });

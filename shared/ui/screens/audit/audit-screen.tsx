@@ -22,7 +22,7 @@ export function AuditScreen() {
   const allowed = role === 'admin' || role === 'auditor';
   return (
     <Column title="Audit trail">
-      <PageHead title="Audit trail" eyebrow="Evidence" intro="Every change in the lab, newest first. Each entry carries a hash of its contents and of the entry before it, so a changed or missing entry shows." />
+      <PageHead title="Audit trail" eyebrow="Evidence" intro="Every change in the lab, newest first. Each entry carries a hash of its contents and of the entry before it, sealed with a key kept outside the database, and checkpoints in a separate file record how long the trail was, so a changed, removed or cut-off entry shows." />
       {allowed ? <AuditBody labId={labId} /> : <EmptyState title="Not for your role" body="The audit trail is read by lab admins and auditors." testID="role-refused" />}
     </Column>
   );

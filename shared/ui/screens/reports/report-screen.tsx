@@ -1,6 +1,6 @@
 /** The validation report as a printable page (print CSS on the web), with the PDF beside it. */
 import { StyleSheet, View } from 'react-native';
-import type { ReportContent } from '@/shared/api/approval';
+import { auditTrailLine, type ReportContent, type ReportTrail } from '@/shared/api/approval';
 import { reportPaths, useReport, type ReportKind } from '@/shared/ui/api/reports';
 import { AppText, Button, Caution, StatusBadge } from '@/shared/ui/components';
 import { useLabId } from '@/shared/ui/lab-context';
@@ -25,18 +25,19 @@ export function ReportScreen({ kind, targetId }: { kind: ReportKind; targetId: s
         <TextLink href={paths.pdf} external testID="report-pdf">Download the PDF</TextLink>
         <TextLink href={kind === 'study' ? `/studies/${targetId}` : `/standards/${targetId}`}>{kind === 'study' ? 'Back to the study' : 'Back to the standard'}</TextLink>
       </View>
-      <QueryView query={report} loadingLabel="Loading the report…">{(r) => <ReportBody content={r.content} sha256={r.report.sha256} createdAt={r.report.createdAt} />}</QueryView>
+      <QueryView query={report} loadingLabel="Loading the report…">{(r) => <ReportBody content={r.content} sha256={r.report.sha256} createdAt={r.report.createdAt} trail={r.trail} />}</QueryView>
     </Column>
   );
 }
 
-function ReportBody({ content: c, sha256, createdAt }: { content: ReportContent; sha256: string; createdAt: number }) {
+function ReportBody({ content: c, sha256, createdAt, trail }: { content: ReportContent; sha256: string; createdAt: number; trail: ReportTrail | null }) {
   return (
     <View style={styles.sheet} testID="report-sheet" {...({ dataSet: { print: 'sheet' } } as object)}>
       <View style={styles.head}>
         <AppText variant="label" tone="muted">{`${c.lab.name} · validation report`}</AppText>
         <AppText variant="title" role="heading" aria-level={1} testID="screen-title">{c.title}</AppText>
         <AppText variant="label" tone="muted" selectable>{`Report sha256 ${sha256} · issued ${formatDateTime(createdAt)} · engine ${c.engineVersion}`}</AppText>
+        <AppText variant="label" tone="muted" selectable testID="report-trail">{auditTrailLine(trail)}</AppText>
       </View>
       {c.purpose ? <AppText variant="body">{c.purpose}</AppText> : null}
       {c.scope ? <Panel title="Scope"><ScopeFacts scope={c.scope} /></Panel> : null}
