@@ -31,6 +31,7 @@ import type { User } from 'lucia';
 import type { z } from 'zod';
 import type { Role } from '@/shared/api/auth';
 import type { Db } from '../db/knex';
+import { memberRole } from '../db/members';
 import { AppError, forbidden, unauthorised } from '../errors';
 import { requireUser } from './middleware';
 
@@ -142,9 +143,8 @@ export function requireLabRole(db: Db, action: Action): RequestHandler {
   return async (req: Request, _res: Response, next: NextFunction) => {
     if (!req.user) throw unauthorised();
     const labId = String(req.params.labId ?? '');
-    const row = await db('memberships').where({ lab_id: labId, user_id: req.user.id }).first('role');
-    if (!row) throw labNotFound();
-    const role = row.role as Role;
+    const role = await memberRole(db, labId, req.user.id);
+    if (!role) throw labNotFound();
     if (!can(role, action)) throw forbidden(`Your role in this lab (${role}) does not allow ${action}.`);
     req.lab = { id: labId, role };
     next();
