@@ -1,5 +1,5 @@
 /**
- * Exact synthesis of a linear system's response (engine.md, "Known-answer signals").
+ * Exact synthesis of a linear system's response (docs/engine.md, "Known-answer signals").
  *
  * Over one synthesis record of L = 2^p samples at fs:
  *   X = FFT(x) with the Nyquist line removed (X[L/2] = 0; the input record becomes IFFT(X)),

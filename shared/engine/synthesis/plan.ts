@@ -5,7 +5,7 @@
  * Sizes: record N = round(durationS·fs) samples. A steady-state record takes the first N samples
  * of a synthesis record of L = max(next power of two ≥ N, the excitation period) samples; a record
  * from rest is followed by Z zeros, Z ≥ the 1e-6 decay time ln(1e6)/(ζω_n)_min plus |delay|, and
- * L = next power of two ≥ N + Z (engine.md, exact synthesis).
+ * L = next power of two ≥ N + Z (docs/engine.md, exact synthesis).
  */
 import { EngineInputError } from '../errors';
 import { isPowerOfTwo } from '../fft';
