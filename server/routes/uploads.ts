@@ -23,6 +23,9 @@ const idParam = z.object({ id: z.string() });
 function oneCsvFile(dataDir: string): RequestHandler {
   const dir = incomingDir(dataDir);
   const upload = multer({
+    // Browsers send the file name as raw UTF-8 in the part header; busboy's default (latin1)
+    // would store "中文" as mojibake.
+    defParamCharset: 'utf8',
     storage: multer.diskStorage({
       destination: (_req, _file, cb) => {
         fs.mkdir(dir, { recursive: true }, (err) => cb(err, dir));
