@@ -15,6 +15,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { loadConfig, type Config } from './config';
 import { createDb } from './db/knex';
+import { integrityCheck, vacuumInto } from './db/maintenance';
 
 export interface BackupResult {
   file: string;
@@ -27,8 +28,7 @@ const stamp = (d = new Date()) => d.toISOString().replace(/[:.]/g, '-');
 async function integrityOf(file: string): Promise<string> {
   const db = createDb(file);
   try {
-    const rows = await db.raw('PRAGMA integrity_check');
-    return rows.map((r: { integrity_check: string }) => r.integrity_check).join('; ');
+    return await integrityCheck(db);
   } finally {
     await db.destroy();
   }
@@ -43,7 +43,7 @@ export async function backupDatabase(config: Pick<Config, 'dataDir' | 'databaseF
   const file = path.join(dir, `${stamp(now)}.sqlite`);
   const db = createDb(config.databaseFile);
   try {
-    await db.raw('VACUUM INTO ?', [file]);
+    await vacuumInto(db, file);
   } finally {
     await db.destroy();
   }

@@ -17,6 +17,7 @@ import { createStudyScheduler, type StudyScheduler } from './jobs/scheduler';
 import { checkProductionSafety } from './services/production-checks';
 import { openAuditTrail } from './services/audit-trail';
 import { startReviewReminders } from './services/review-reminders';
+import { sweepIncoming } from './services/upload-files';
 import { seedDemoLab } from './seed/demo-lab';
 import { seedDemoWork } from './seed/demo-work';
 import { APP_VERSION } from './version';
@@ -45,6 +46,10 @@ export async function startServer(config: Config, logger = createLogger(config.l
   if (config.demo.seed && (await seedDemoLab(db, config.demo.password))) logger.info('demo lab seeded');
   // The demo study is computed here (about a second); test servers leave it out (seed/demo-work.ts).
   if (config.demo.seed && (await seedDemoWork(db, { withStudy: config.env !== 'test' }))) logger.info('demo work seeded');
+
+  // No upload is in flight before the server listens: anything in uploads/incoming was left
+  // half-received by a process that stopped mid-upload (one server per DATA_DIR), so all of it goes.
+  sweepIncoming(config.dataDir, 0);
 
   const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.fakePort, { saveDir: config.env === 'test' ? null : path.join(config.dataDir, 'fake-mail'), logger });
   const smtp = config.mail.smtp ?? { host: '127.0.0.1', port: fakeSmtp!.port, secure: false };

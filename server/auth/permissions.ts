@@ -31,6 +31,7 @@ import type { User } from 'lucia';
 import type { z } from 'zod';
 import type { Role } from '@/shared/api/auth';
 import type { Db } from '../db/knex';
+import { memberRole } from '../db/members';
 import { AppError, forbidden, unauthorised } from '../errors';
 import { requireUser } from './middleware';
 
@@ -142,9 +143,8 @@ export function requireLabRole(db: Db, action: Action): RequestHandler {
   return async (req: Request, _res: Response, next: NextFunction) => {
     if (!req.user) throw unauthorised();
     const labId = String(req.params.labId ?? '');
-    const row = await db('memberships').where({ lab_id: labId, user_id: req.user.id }).first('role');
-    if (!row) throw labNotFound();
-    const role = row.role as Role;
+    const role = await memberRole(db, labId, req.user.id);
+    if (!role) throw labNotFound();
     if (!can(role, action)) throw forbidden(`Your role in this lab (${role}) does not allow ${action}.`);
     req.lab = { id: labId, role };
     next();
@@ -189,7 +189,7 @@ export function labRoute(
 ): void {
   if (!spec.path.startsWith('/labs/:labId')) throw new Error(`labRoute ${spec.path} must start with /labs/:labId`);
   register({ tag: tagOf(spec.path), ...spec });
-  router[spec.method](spec.path, requireLabRole(db, spec.action), ...jsonOnly(spec), ...handlers.map(asLabHandler));
+  router[spec.method](spec.path, requireLabRole(db, spec.action), ...jsonOnly(spec), ...checkedResponse(spec), ...handlers.map(asLabHandler));
 }
 
 /** Registers and mounts a route outside a lab: 'public', or 'signed-in' (401 without a session). */
@@ -202,9 +202,9 @@ export function openRoute(
 ): void {
   register({ tag: tagOf(spec.path), ...spec });
   if (spec.action === 'signed-in') {
-    router[spec.method](spec.path, requireUser, ...jsonOnly(spec), ...(handlers as SignedInHandler[]).map(asSignedInHandler));
+    router[spec.method](spec.path, requireUser, ...jsonOnly(spec), ...checkedResponse(spec), ...(handlers as SignedInHandler[]).map(asSignedInHandler));
   } else {
-    router[spec.method](spec.path, ...jsonOnly(spec), ...(handlers as RequestHandler[]));
+    router[spec.method](spec.path, ...jsonOnly(spec), ...checkedResponse(spec), ...(handlers as RequestHandler[]));
   }
 }
 
@@ -221,6 +221,35 @@ function jsonOnly(spec: RouteSpec): RequestHandler[] {
       if (hasBody && !req.is('application/json')) {
         throw new AppError(415, 'unsupported_media_type', 'Send this request as JSON (Content-Type: application/json).');
       }
+      next();
+    },
+  ];
+}
+
+/**
+ * In tests (NODE_ENV=test), a success answer sent with res.json must match the route's response
+ * schema from shared/api, as the client will read it (after a JSON round trip), so server and
+ * client cannot drift apart unnoticed. A mismatch throws: the error middleware logs it, naming the
+ * route and the path of the first mismatch, and answers 500.
+ */
+function checkedResponse(spec: RouteSpec): RequestHandler[] {
+  const schema = spec.response;
+  if (!schema || process.env.NODE_ENV !== 'test') return [];
+  return [
+    (_req: Request, res: Response, next: NextFunction) => {
+      const send = res.json.bind(res);
+      res.json = (body: unknown) => {
+        if (res.statusCode >= 200 && res.statusCode < 300) {
+          const checked = schema.safeParse(body === undefined ? undefined : JSON.parse(JSON.stringify(body)));
+          if (!checked.success) {
+            const issue = checked.error.issues[0];
+            throw new Error(
+              `Response of ${spec.method.toUpperCase()} ${spec.path} does not match its schema at ${issue.path.join('.') || '(root)'}: ${issue.message}`,
+            );
+          }
+        }
+        return send(body);
+      };
       next();
     },
   ];

@@ -24,11 +24,6 @@ export function builtInScenarioPaths(): string[] {
   return listJson(SCENARIOS_DIR);
 }
 
-/** Paths of all built-in recipe files, sorted by name. */
-export function builtInRecipePaths(): string[] {
-  return listJson(RECIPES_DIR);
-}
-
 function resolveIn(folder: string, arg: string, option: string): string {
   if (existsSync(arg)) return arg;
   const named = join(folder, arg.endsWith('.json') ? arg : `${arg}.json`);

@@ -39,10 +39,6 @@ export async function claimJob(db: Db, id: number, at = Date.now()): Promise<boo
   return n === 1;
 }
 
-export async function setJobProgress(db: Db, id: number, progress: unknown, at = Date.now()) {
-  await db('jobs').where({ id }).update({ progress: JSON.stringify(progress), updated_at: at });
-}
-
 export async function finishJob(db: Db, id: number, status: Exclude<JobStatus, 'queued' | 'running'>, error: string | null = null, at = Date.now()) {
   await db('jobs').where({ id }).update({ status, error, locked_at: null, updated_at: at });
 }

@@ -46,6 +46,12 @@ export async function listMembers(db: Db, labId: string, query: MemberListQuery)
   return { rows, total: Number(count?.n ?? 0) };
 }
 
+/** The role of a user in a lab, or undefined when they are not a member (the permission check). */
+export async function memberRole(db: Db, labId: string, userId: string): Promise<Role | undefined> {
+  const row = await db('memberships').where({ lab_id: labId, user_id: userId }).first('role');
+  return row?.role as Role | undefined;
+}
+
 export function findMember(db: Db, labId: string, userId: string): Promise<MemberRow | undefined> {
   return members(db, labId, {})
     .where('memberships.user_id', userId)

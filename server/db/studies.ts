@@ -92,10 +92,10 @@ export function findStudyById(db: Db, id: string): Promise<StudyRow | undefined>
   return studies(db).where('s.id', id).first(STUDY_COLUMNS);
 }
 
-/** Study ids left queued or running (after a restart: the ones to resume), oldest first. */
-export async function activeStudyIds(db: Db): Promise<string[]> {
-  const rows = await db('studies').whereIn('status', ACTIVE_STATUSES).orderBy([{ column: 'created_at' }, { column: 'id' }]).select('id');
-  return rows.map((r: { id: string }) => r.id);
+/** Whether someone asked to cancel the study (read between runs by the study runner). */
+export async function cancelRequested(db: Db, studyId: string): Promise<boolean> {
+  const row = await db('studies').where({ id: studyId }).first('cancel_requested_at');
+  return Boolean(row?.cancel_requested_at);
 }
 
 export function studyScenarios(db: Db, studyId: string): Promise<StudyScenarioRow[]> {
@@ -196,17 +196,4 @@ export async function replaceCurves(trx: Db, studyId: string, curves: CurveRow[]
 
 export function listCurves(db: Db, studyId: string): Promise<CurveRow[]> {
   return db('result_curves').where({ study_id: studyId }).orderBy([{ column: 'scenario_id' }, { column: 'kind' }]).select('scenario_id', 'kind', 'length', 'data');
-}
-
-/** Scenario versions of the lab, by id and version (to check a study's request). */
-export async function scenarioVersionsExist(db: Db, labId: string, refs: { id: string; version: number }[]): Promise<boolean[]> {
-  const out: boolean[] = [];
-  for (const r of refs) {
-    const row = await db({ sv: 'scenario_versions' })
-      .join({ s: 'scenarios' }, 's.id', 'sv.scenario_id')
-      .where({ 's.lab_id': labId, 'sv.scenario_id': r.id, 'sv.version': r.version })
-      .first('sv.version');
-    out.push(Boolean(row));
-  }
-  return out;
 }

@@ -24,6 +24,10 @@ export function listMemberships(db: Db, userId: string): Promise<{ lab_id: strin
     .select('memberships.lab_id', 'labs.name as lab_name', 'memberships.role');
 }
 
+export function findLabBySlug(db: Db, slug: string): Promise<{ id: string; name: string } | undefined> {
+  return db('labs').where({ slug }).first('id', 'name');
+}
+
 export async function insertLab(db: Db, lab: { name: string; slug: string }): Promise<string> {
   const id = randomUUID();
   await db('labs').insert({ id, name: lab.name, slug: lab.slug, created_at: Date.now() });

@@ -6,7 +6,7 @@
 import type { StudyProgress } from '@/shared/api/work';
 import { studySeed } from '@/shared/engine/study';
 import type { Db } from '../db/knex';
-import { findStudyById, storeRun, storedRunKeys, studyScenarios, updateStudy, type StudyRow, type StudyScenarioRow } from '../db/studies';
+import { cancelRequested, findStudyById, storeRun, storedRunKeys, studyScenarios, updateStudy, type StudyRow, type StudyScenarioRow } from '../db/studies';
 import { findVersion } from '../db/versioned';
 import { findUserById } from '../db/users';
 import type { Logger } from '../logger';
@@ -133,11 +133,6 @@ function eta(pace: { since: number; doneAtStart: number }, done: number, total: 
   if (ran <= 0 || done >= total) return done >= total ? 0 : null;
   const perRun = (Date.now() - pace.since) / 1000 / ran;
   return Math.round(perRun * (total - done) * 10) / 10;
-}
-
-async function cancelRequested(db: Db, studyId: string): Promise<boolean> {
-  const row = await db('studies').where({ id: studyId }).first('cancel_requested_at');
-  return Boolean(row?.cancel_requested_at);
 }
 
 async function endCancelled(deps: RunnerDeps, study: StudyRow, hooks: StudyRunHooks): Promise<'cancelled'> {

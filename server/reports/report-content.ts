@@ -17,7 +17,7 @@ import { AppError, notFound } from '../errors';
 import { scenarioOf } from '../services/scenario-definition';
 import { getStandard } from '../services/standards';
 import { getStudyResults } from '../services/study-results';
-import { evidenceDocument, evidenceSha256 } from './evidence';
+import { evidenceDocument, evidenceSha256 } from '../services/evidence';
 import { scenarioPlot } from './report-plots';
 import { acceptanceWords, acquisitionWords, errorSourceWords, excitationWords, recipeWords, systemWords } from './scenario-words';
 

@@ -10,13 +10,11 @@ import {
   versionListSchema,
   versionParamSchema,
 } from '@/shared/api/work';
-import { parseRecipe } from '@/shared/engine/recipe';
 import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
-import { resourceService } from '../services/versioned-resources';
+import { recipes } from '../services/lab-resources';
 import { parseBody } from './parse';
 
-export const recipes = resourceService({ kind: 'recipes', noun: 'recipe', parse: parseRecipe });
 const idParam = z.object({ id: z.string() });
 
 export function recipeRoutes(deps: Pick<AppDeps, 'db'>): Router {

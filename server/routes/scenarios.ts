@@ -10,13 +10,11 @@ import {
   versionListSchema,
   versionParamSchema,
 } from '@/shared/api/work';
-import { parseScenario } from '@/shared/engine/scenario';
 import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
-import { resourceService } from '../services/versioned-resources';
+import { scenarios } from '../services/lab-resources';
 import { parseBody } from './parse';
 
-export const scenarios = resourceService({ kind: 'scenarios', noun: 'scenario', parse: parseScenario });
 const idParam = z.object({ id: z.string() });
 
 export function scenarioRoutes(deps: Pick<AppDeps, 'db'>): Router {

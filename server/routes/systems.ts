@@ -10,13 +10,11 @@ import {
   versionListSchema,
   versionParamSchema,
 } from '@/shared/api/work';
-import { parseSystemSpec } from '@/shared/engine/systems';
 import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
-import { resourceService } from '../services/versioned-resources';
+import { systems } from '../services/lab-resources';
 import { parseBody } from './parse';
 
-export const systems = resourceService({ kind: 'systems', noun: 'system', parse: (d) => parseSystemSpec(d) });
 const idParam = z.object({ id: z.string() });
 
 export function systemRoutes(deps: Pick<AppDeps, 'db'>): Router {

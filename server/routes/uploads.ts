@@ -13,7 +13,7 @@ import { uploadListQuerySchema, uploadListSchema, uploadResultSchema, uploadSche
 import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { AppError } from '../errors';
-import { generatedName, incomingDir, sweepIncoming } from '../services/upload-files';
+import { generatedName, incomingDir } from '../services/upload-files';
 import { getUpload, getUploadResult, listLabUploads, MAX_UPLOAD_BYTES, storeUpload } from '../services/uploads';
 import { parseBody } from './parse';
 
@@ -68,9 +68,6 @@ export function uploadRoutes(deps: AppDeps): Router {
   const r = Router();
   const base = '/labs/:labId/uploads';
   const dataDir = deps.config.dataDir;
-  // At start no upload is in flight in this process: anything in incoming/ was left half-received
-  // by a process that stopped mid-upload (one server per DATA_DIR), so all of it goes.
-  sweepIncoming(dataDir, 0);
   labRoute(r, deps.db, { method: 'get', path: base, action: 'uploads.read', summary: 'List the uploads of a lab', query: uploadListQuerySchema, response: uploadListSchema }, async (req, res) => {
     res.json(await listLabUploads(deps.db, req.lab.id, parseBody(uploadListQuerySchema, req.query)));
   });

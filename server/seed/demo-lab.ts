@@ -5,7 +5,7 @@
 import type { Role } from '@/shared/api/auth';
 import { hashPassword } from '../auth/password';
 import type { Db } from '../db/knex';
-import { addMembership, insertLab, insertUser } from '../db/users';
+import { addMembership, findLabBySlug, insertLab, insertUser } from '../db/users';
 import { recordAudit } from '../services/audit';
 
 export const DEMO_LAB = { name: 'Harbor Ridge Test Lab', slug: 'harbor-ridge' };
@@ -20,7 +20,7 @@ export const DEMO_USERS: { email: string; displayName: string; role: Role }[] = 
 
 /** Seeds the demo lab if it is absent. Returns true when it seeded. */
 export async function seedDemoLab(db: Db, password: string): Promise<boolean> {
-  const existing = await db('labs').where({ slug: DEMO_LAB.slug }).first();
+  const existing = await findLabBySlug(db, DEMO_LAB.slug);
   if (existing) return false;
   const passwordHash = await hashPassword(password);
   await db.transaction(async (trx) => {

@@ -14,9 +14,10 @@ import type { SystemSpec } from '@/shared/engine/systems';
 import { parseRecipe } from '@/shared/engine/recipe';
 import { parseScenario } from '@/shared/engine/scenario';
 import { ENGINE_VERSION } from '@/shared/engine/version';
-import { claimJob, enqueueJob, finishJob } from '../db/jobs';
+import { claimJob, enqueueJob, finishJob, openJobForStudy } from '../db/jobs';
 import type { Db } from '../db/knex';
 import { insertStudy } from '../db/studies';
+import { findUserByEmail, findLabBySlug } from '../db/users';
 import { findResourceByName, insertResource, type VersionedKind } from '../db/versioned';
 import { createLogger } from '../logger';
 import { runStudy } from '../jobs/study-runner';
@@ -92,10 +93,10 @@ const silentMailer = { send: async () => undefined, close: () => undefined };
  * otherwise spend about a second computing it; tests that need a study start their own).
  */
 export async function seedDemoWork(db: Db, opts: { withStudy: boolean } = { withStudy: true }): Promise<boolean> {
-  const lab = await db('labs').where({ slug: DEMO_LAB.slug }).first('id');
+  const lab = await findLabBySlug(db, DEMO_LAB.slug);
   if (!lab) return false;
   if (await findResourceByName(db, 'systems', lab.id, DEMO_SYSTEMS[0].name)) return false;
-  const author = await db('users').where({ email: 'analyst@harborridge.test' }).first('id');
+  const author = await findUserByEmail(db, 'analyst@harborridge.test');
   if (!author) return false;
   const labId: string = lab.id;
   const scenarios = jsonFiles(SCENARIOS_DIR).map((s) => ({ ...s, parsed: parseScenario(s.json) }));
@@ -137,7 +138,7 @@ export async function seedDemoWork(db: Db, opts: { withStudy: boolean } = { with
 }
 
 async function runDemoStudy(db: Db, studyId: string) {
-  const job = await db('jobs').where({ type: 'study' }).whereRaw("json_extract(payload, '$.studyId') = ?", [studyId]).first('id');
+  const job = await openJobForStudy(db, studyId);
   if (!job || !(await claimJob(db, job.id))) return;
   const outcome = await runStudy(
     { db, logger: createLogger('silent'), mailer: silentMailer, executor: inlineExecutor },

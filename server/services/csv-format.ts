@@ -29,9 +29,3 @@ export function formatCsv(header: readonly string[], rows: Iterable<readonly Csv
   for (const row of rows) lines.push(row.map(formatCsvCell).join(','));
   return lines.join('\r\n') + '\r\n';
 }
-
-/** Rows of equal-length numeric columns, for formatCsv. */
-export function* columnRows(columns: readonly ArrayLike<number>[]): Generator<number[]> {
-  const n = columns.length ? columns[0].length : 0;
-  for (let i = 0; i < n; i++) yield columns.map((c) => c[i]);
-}

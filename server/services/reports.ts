@@ -9,7 +9,7 @@ import type { Report, ReportContent, ReportRecord, ReportTrail } from '@/shared/
 import type { Db } from '../db/knex';
 import { findReport, findReportByContent, insertReport, type ReportRow } from '../db/reports';
 import { notFound } from '../errors';
-import { sha256Hex } from '../reports/evidence';
+import { sha256Hex } from './evidence';
 import { standardReportContent, studyReportContent } from '../reports/report-content';
 import { renderReportPdf } from '../reports/report-pdf';
 import { auditTrailOf, canonicalJson, recordAudit } from './audit';

@@ -13,7 +13,7 @@
 import type { ScenarioResult, StudyResults } from '@/shared/api/work';
 import { blobToFloat64, float64ToBlob } from '../db/float-blob';
 import type { Db } from '../db/knex';
-import { findStudy, findStudyById, listCurves, listRuns, replaceCurves, studyScenarios, type CurveRow } from '../db/studies';
+import { findStudy, findStudyById, listCurves, listRuns, replaceCurves, studyScenarios, updateStudy, type CurveRow } from '../db/studies';
 import { findVersion } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import type { AssembleOutcome, AssembleTask, AssembledComparison } from '../jobs/assemble-scenario';
@@ -107,9 +107,7 @@ export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler
   };
   await db.transaction(async (trx) => {
     await replaceCurves(trx, studyId, curves);
-    await trx('studies')
-      .where({ id: studyId })
-      .update({ status, summary: JSON.stringify(summary), error, finished_at: Date.now(), current_scenario_id: null });
+    await updateStudy(trx, studyId, { status, summary: JSON.stringify(summary), error, finished_at: Date.now(), current_scenario_id: null });
     await recordAudit(trx, {
       labId: study.lab_id,
       actorUserId: null,

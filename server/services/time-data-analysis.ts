@@ -75,19 +75,3 @@ export function analyseTimeData(table: NumericTable, recipe: Recipe, o: TimeData
     warnings: p.warnings,
   };
 }
-
-export type TimeDataResult = ReturnType<typeof analyseTimeData>;
-
-/** The part of a result kept in the upload's row (the curves are recomputed from the file). */
-export function timeDataSummary(r: TimeDataResult) {
-  return {
-    sampleRateHz: r.sampleRateHz,
-    samples: r.samples,
-    blockLength: r.blockLength,
-    averages: r.averages,
-    lines: r.frequenciesHz.length,
-    bandLowHz: r.frequenciesHz[0],
-    bandHighHz: r.frequenciesHz[r.frequenciesHz.length - 1],
-    warnings: r.warnings,
-  };
-}

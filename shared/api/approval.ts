@@ -5,16 +5,7 @@
  * frequencies Hz; damping as a percentage of critical (1 % = ratio 0.01).
  */
 import { z } from 'zod';
-
-const millis = z.number().int();
-const id = z.string().min(1).max(100);
-const person = z.object({ id: z.string(), displayName: z.string() });
-const pageOf = <T extends z.ZodType>(item: T) =>
-  z.object({ items: z.array(item), total: z.number().int(), limit: z.number().int(), offset: z.number().int() });
-const paging = {
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
-};
+import { id, millis, pageOf, paging, person } from './common';
 
 // ---- lifecycle -------------------------------------------------------------------------------
 

@@ -5,18 +5,9 @@
  */
 import { z } from 'zod';
 import { roleSchema } from './auth';
+import { millis, pageOf, pageQuerySchema } from './common';
 
 const email = z.string().trim().toLowerCase().email('Enter an e-mail address such as name@example.test').max(254);
-const millis = z.number().int();
-
-export const pageQuerySchema = z.object({
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
-});
-
-/** A page of a list: the items, the count of all that match, and the page asked for. */
-export const pageOf = <T extends z.ZodType>(item: T) =>
-  z.object({ items: z.array(item), total: z.number().int(), limit: z.number().int(), offset: z.number().int() });
 
 // ---- passwords ------------------------------------------------------------------------------
 

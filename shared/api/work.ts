@@ -6,23 +6,15 @@
  * whose exact FRF is zero) travel as null.
  */
 import { z } from 'zod';
+import { id, millis, pageOf, paging, person } from './common';
 import { recipeSchema } from '@/shared/engine/recipe';
 import { scenarioSchema } from '@/shared/engine/scenario';
 import { systemSpecSchema } from '@/shared/engine/systems/schema';
 
-const millis = z.number().int();
-const id = z.string().min(1).max(100);
-const person = z.object({ id: z.string(), displayName: z.string() });
-
-/** A page of a list: the items, the count of all that match, and the page asked for. */
-export const workPageOf = <T extends z.ZodType>(item: T) =>
-  z.object({ items: z.array(item), total: z.number().int(), limit: z.number().int(), offset: z.number().int() });
-
 /** List query of a lab list: paging, one whitelisted sort key, order, and a name filter. */
 export const listQueryOf = <S extends readonly [string, ...string[]]>(sorts: S, defaultSort: S[number], defaultOrder: 'asc' | 'desc') =>
   z.object({
-    limit: z.coerce.number().int().min(1).max(200).default(50),
-    offset: z.coerce.number().int().min(0).default(0),
+    ...paging,
     // parse() gives the default the enum's own output type (and checks it is one of the sorts).
     sort: z.enum(sorts).default(z.enum(sorts).parse(defaultSort)),
     order: z.enum(['asc', 'desc']).default(defaultOrder),
@@ -69,7 +61,7 @@ export const resourceSummarySchema = z.object({
   updatedAt: millis,
 });
 export type ResourceSummary = z.infer<typeof resourceSummarySchema>;
-export const resourceListSchema = workPageOf(resourceSummarySchema);
+export const resourceListSchema = pageOf(resourceSummarySchema);
 export type ResourceList = z.infer<typeof resourceListSchema>;
 
 export const versionInfoSchema = z.object({
@@ -164,7 +156,7 @@ export const studySchema = z.object({
   finishedAt: millis.nullable(),
 });
 export type Study = z.infer<typeof studySchema>;
-export const studyListSchema = workPageOf(studySchema.omit({ scenarios: true }));
+export const studyListSchema = pageOf(studySchema.omit({ scenarios: true }));
 export type StudyList = z.infer<typeof studyListSchema>;
 
 export const runSchema = z.object({
@@ -288,7 +280,7 @@ export type Upload = z.infer<typeof uploadSchema>;
 
 export const UPLOAD_SORTS = ['createdAt', 'name'] as const;
 export const uploadListQuerySchema = listQueryOf(UPLOAD_SORTS, 'createdAt', 'desc').extend({ kind: uploadKindSchema.optional() });
-export const uploadListSchema = workPageOf(uploadSchema);
+export const uploadListSchema = pageOf(uploadSchema);
 
 const complexCurve = z.object({ re: curve, im: curve });
 

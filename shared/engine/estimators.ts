@@ -1,11 +1,11 @@
 /**
  * FRF estimators from Welch-averaged spectra (J. S. Bendat & A. G. Piersol, Random Data, 4th ed.,
- * Wiley 2010; engine.md):
+ * Wiley 2010; docs/engine.md):
  *   H1 = Gyx / Gxx                       (unbiased by output noise)
  *   H2 = Gyy / Gxy,  Gxy = conj(Gyx)     (unbiased by input noise)
  *   Hv = (Gyy − κ·Gxx + sqrt((κ·Gxx − Gyy)² + 4κ·|Gyx|²)) / (2·Gxy)
  *        the total-least-squares estimate; κ (hvWeight, default 1) is the ratio of the output- to
- *        the input-noise power in the channels' units. κ = 1 is engine.md's Hv; κ → ∞ gives H1,
+ *        the input-noise power in the channels' units. κ = 1 is docs/engine.md's Hv; κ → ∞ gives H1,
  *        κ → 0 gives H2. Hv therefore depends on how the channels are scaled.
  *   γ² = |Gyx|² / (Gxx·Gyy),  coherent output power γ²·Gyy,  output noise (1 − γ²)·Gyy.
  * Lines where a denominator is zero come out as NaN (IEEE arithmetic), not as a made-up value.

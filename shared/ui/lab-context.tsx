@@ -4,7 +4,7 @@
  * through `useCurrentLab()`. The store sits behind a React context so tests (or a future native
  * shell) can give their own; the default store needs no provider.
  */
-import { createContext, useContext, useSyncExternalStore, type ReactNode } from 'react';
+import { createContext, useContext, useSyncExternalStore } from 'react';
 import type { Membership, Role } from '@/shared/api/auth';
 import { useSession } from './api/use-session';
 
@@ -43,10 +43,6 @@ export function createLabStore(): LabStore {
 }
 
 const LabStoreContext = createContext<LabStore>(createLabStore());
-
-export function LabStoreProvider({ store, children }: { store: LabStore; children: ReactNode }) {
-  return <LabStoreContext.Provider value={store}>{children}</LabStoreContext.Provider>;
-}
 
 export type CurrentLab = Membership & { memberships: Membership[]; select: (labId: string) => void };
 

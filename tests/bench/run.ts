@@ -8,7 +8,7 @@
  *   npm run bench -- --only welch only workloads whose name contains "welch"
  *
  * When a python3 with SciPy is found, the reference library's timing of the same work
- * (../shared/bench/*.py) runs in the same invocation and is printed beside ours with the ratio
+ * (tests/bench/reference_welch_bench.py) runs in the same invocation and is printed beside ours with the ratio
  * ours ÷ reference. OPENBLAS_CORETYPE and OPENBLAS_L2_SIZE are unset for that child process only.
  */
 import { spawnSync } from 'node:child_process';
@@ -27,7 +27,7 @@ export interface Workload {
 const REFERENCES = [
   {
     workload: 'welch-2ch-2^21-4096-hann50',
-    script: resolve(__dirname, '..', '..', '..', 'shared', 'bench', 'reference_welch_bench.py'),
+    script: resolve(__dirname, 'reference_welch_bench.py'),
     args: ['21', '4096', '7'],
   },
 ];

@@ -1,5 +1,5 @@
 /**
- * The Welch workload of ../shared/bench/reference_welch_bench.py, on our engine: two channels of
+ * The Welch workload of tests/bench/reference_welch_bench.py, on our engine: two channels of
  * 2^21 samples, block 4096, Hann, 50 % overlap (1023 blocks), Gxx, Gyy, Gyx, H1, H2, coherence.
  * Plus the floor, the same number of bare complex FFTs of 4096 points (one per block), and the
  * full estimate (adds Hv and the random errors).

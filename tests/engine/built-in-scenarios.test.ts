@@ -131,7 +131,7 @@ describe('frame: uncorrelated noise on one channel or both', () => {
       const noisy = runOnce(scenario, seed, testRecipe({ blockLength: 4096, estimator: 'Hv', hvWeight: kappa })).processed;
       const reference = processOnce(clean, FRAME_SURVEY).processed;
       const { h1, h2, hv } = noisy.estimate;
-      // engine.md: with noise, |H1| ≤ |Hv| ≤ |H2| at every line.
+      // docs/engine.md: with noise, |H1| ≤ |Hv| ≤ |H2| at every line.
       for (let k = noisy.bandIndices.start; k < noisy.bandIndices.end; k++) {
         expect(magnitude(h1, k)).toBeLessThanOrEqual(magnitude(hv, k) * (1 + 1e-12));
         expect(magnitude(hv, k)).toBeLessThanOrEqual(magnitude(h2, k) * (1 + 1e-12));
@@ -225,7 +225,7 @@ describe('arm: leakage-free excitations', () => {
 describe('arm: delay between the channels', () => {
   it('coherence falls by (1 − τ/T)² and |H1| by (1 − τ/T)', () => {
     // Rectangular window, T = 512/4096 = 0.125 s, τ = 12.5 ms: τ/T = 0.1 (Bendat & Piersol,
-    // Random Data, from memory; engine.md). Ratios to the control remove the leakage of
+    // Random Data, from memory; docs/engine.md). Ratios to the control remove the leakage of
     // the short block, which is there with or without the delay.
     const scenario = loadScenario('arm-channel-delay');
     const control = withoutErrors(scenario);

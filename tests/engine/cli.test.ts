@@ -122,7 +122,7 @@ describe('plumbline windows', () => {
     expect(r.status).toBe(0);
     const { windows } = JSON.parse(r.stdout) as { windows: { window: string; enbwBins: number; scallopingLossDb: number; coherentGain: number; overlapCorrelation50Percent: number }[] };
     const by = Object.fromEntries(windows.map((w) => [w.window, w]));
-    // Harris 1978 Table I (values quoted from memory, engine.md): ENBW 1.00 / 1.50 / 2.00 bins,
+    // Harris 1978 Table I (values quoted from memory, docs/engine.md): ENBW 1.00 / 1.50 / 2.00 bins,
     // scalloping loss 3.92 / 1.42 / 0.83 dB, coherent gain 1.00 / 0.50 / 0.36, overlap
     // correlation at 50 %: 50.0 / 16.7 / 3.8 % (rectangular, Hann, Blackman-Harris 4-term).
     expect(by.rectangular!.enbwBins).toBeCloseTo(1.0, 2);

@@ -130,7 +130,7 @@ describe('identities', () => {
 
 describe('ordering with noise on both channels', () => {
   it.each([1, 0.1, 10])('|H1| ≤ |Hv| ≤ |H2| at every line (hvWeight %d)', (hvWeight) => {
-    // engine.md; follows from γ² ≤ 1 (Cauchy–Schwarz) for any κ > 0.
+    // docs/engine.md; follows from γ² ≤ 1 (Cauchy–Schwarz) for any κ > 0.
     const u = gaussianNoise('ord-u', 16384);
     const nx = gaussianNoise('ord-nx', 16384, 0.4);
     const ny = gaussianNoise('ord-ny', 16384, 0.4);

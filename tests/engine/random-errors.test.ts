@@ -1,7 +1,7 @@
 /**
  * Bendat & Piersol's random errors against Monte Carlo, and the 95 % bands' coverage.
  * Source: J. S. Bendat & A. G. Piersol, Random Data, 4th ed., Wiley 2010 (formulas quoted from
- * memory in engine.md). Tolerances come from the number of Monte Carlo samples.
+ * memory in docs/engine.md). Tolerances come from the number of Monte Carlo samples.
  */
 import {
   autospectrumRandomError,

@@ -1,7 +1,7 @@
 /**
  * Line scores against analytic truths: a known complex gain g applied to the exact FRF gives a
  * magnitude error of 20·log10|g| dB, a phase error of arg g and a complex relative error of |g − 1|
- * at every line (definitions in engine.md); a pure delay τ gives −360·f·τ degrees, wrapped.
+ * at every line (definitions in docs/engine.md); a pure delay τ gives −360·f·τ degrees, wrapped.
  */
 import { EngineInputError } from '@/shared/engine/errors';
 import { bandFigure, scoreFrf, scoresAtFrequencies, wrapDegrees } from '@/shared/engine/scores/line-scores';

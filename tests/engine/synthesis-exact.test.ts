@@ -1,5 +1,5 @@
 /**
- * Exactness of the frequency-domain synthesis (engine.md, "Known-answer signals").
+ * Exactness of the frequency-domain synthesis (docs/engine.md, "Known-answer signals").
  * Analytic truths used:
  * - the steady-state response of a linear system to A·cos(ωt + φ) is A·|H(ω)|·cos(ωt + φ + ∠H(ω))
  *   (standard textbook result, e.g. S. S. Rao, Mechanical Vibrations);

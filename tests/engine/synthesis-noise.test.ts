@@ -1,7 +1,7 @@
 /**
  * Measurement noise. Sources:
  * - Parseval's theorem for the DFT, Σ|X_k|² = N·Σx_n² (exact), and its consequence that white
- *   noise of variance σ² at rate fs has the one-sided PSD 2σ²/fs (engine.md check table);
+ *   noise of variance σ² at rate fs has the one-sided PSD 2σ²/fs (docs/engine.md check table);
  * - the periodogram of Gaussian white noise: each line is σ²-scaled χ² with 2 degrees of freedom,
  *   so a mean over M independent lines has relative standard error 1/sqrt(M) (e.g. J. S. Bendat
  *   and A. G. Piersol, Random Data, 4th ed., 2010, ε[Ĝ] = 1/sqrt(n_d); quoted from memory).

@@ -102,7 +102,7 @@ describe('SDOF receptance (textbook results, e.g. S. S. Rao, Mechanical Vibratio
     expect(mode.naturalFrequencyHz).toBeCloseTo(fn, 12);
     expect(mode.dampingRatio).toBeCloseTo(zeta, 14);
     expect(mode.dampedFrequencyHz / fn).toBeCloseTo(Math.sqrt(1 - zeta * zeta), 14);
-    // ln(100) = 4.60517, ln(1000) = 6.90776, ln(1e6) = 13.8155 (engine.md: t ≈ 13.8/(ζω_n)).
+    // ln(100) = 4.60517, ln(1000) = 6.90776, ln(1e6) = 13.8155 (docs/engine.md: t ≈ 13.8/(ζω_n)).
     expect(mode.decayTimeS.to1Percent * zeta * omegaN).toBeCloseTo(4.60517, 5);
     expect(mode.decayTimeS.to01Percent * zeta * omegaN).toBeCloseTo(6.90776, 5);
     expect(mode.decayTimeS.to1e6 * zeta * omegaN).toBeCloseTo(13.81551, 5);

@@ -18,7 +18,7 @@ import {
   scipySignals,
 } from './spectra-helpers';
 
-const TOLERANCE = 1e-10; // engine.md: agree with SciPy to ≤ 1e-10 relative
+const TOLERANCE = 1e-10; // docs/engine.md: agree with SciPy to ≤ 1e-10 relative
 
 describe('Welch spectra against SciPy welch / csd / coherence', () => {
   // Source: SciPy scipy.signal.welch, csd, coherence; fixtures and their seed/version from

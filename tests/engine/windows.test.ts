@@ -44,10 +44,10 @@ describe('DFT-even construction', () => {
 
 describe("Harris's window figures", () => {
   // Source: F. J. Harris, "On the use of windows for harmonic analysis with the discrete Fourier
-  // transform", Proc. IEEE 66(1), 1978, Table I (values quoted from memory in engine.md). The
+  // transform", Proc. IEEE 66(1), 1978, Table I (values quoted from memory in docs/engine.md). The
   // table rounds ENBW and coherent gain to 0.01, losses to 0.01 dB, side lobes to 1 dB and overlap
   // correlations to 0.1 %. Hamming computes to 1.75 dB and 23.4 % (table: 1.78, 23.5), hence the
-  // 0.05 dB and 0.2-point allowances engine.md sets. Side lobes: the table gives whole dB and
+  // 0.05 dB and 0.2-point allowances docs/engine.md sets. Side lobes: the table gives whole dB and
   // lists Hann's −31.47 dB (the Hann kernel's analytic first side lobe) as −32, so 0.6 dB.
   const table: [WindowName, { enbw: number; scallop: number; sidelobe: number; gain: number; oc50: number; oc75: number }][] = [
     ['rectangular', { enbw: 1.0, scallop: 3.92, sidelobe: -13, gain: 1.0, oc50: 50.0, oc75: 75.0 }],
@@ -65,7 +65,7 @@ describe("Harris's window figures", () => {
     expect(Math.abs(100 * f.overlapCorrelation.at75 - t.oc75)).toBeLessThanOrEqual(0.2);
   });
 
-  it('Hamming computes to 1.75 dB scalloping loss and 23.4 % overlap correlation (engine.md)', () => {
+  it('Hamming computes to 1.75 dB scalloping loss and 23.4 % overlap correlation (docs/engine.md)', () => {
     const f = windowFigures('hamming', 1024);
     expect(f.scallopingLossDb).toBeCloseTo(1.75, 2);
     expect(100 * f.overlapCorrelation.at50).toBeCloseTo(23.4, 1);

@@ -10,7 +10,7 @@ import type request from 'supertest';
 import { startTestServer, type TestServer } from './helpers';
 import { auditSince, createWork, editRecipe, finishedStudy, frameScope, lastAuditId, signInAll, type Agents, type WorkIds } from './approval-fixtures';
 import { TEST_PASSWORD } from './helpers';
-import { evidenceDocument, evidenceSha256 } from '@/server/reports/evidence';
+import { evidenceDocument, evidenceSha256 } from '@/server/services/evidence';
 import { ENGINE_VERSION } from '@/shared/engine/version';
 
 let t: TestServer;

@@ -71,7 +71,7 @@ describe('time data', () => {
     const csv = timeCsv();
     const res = await upload({ kind: 'time-data', recipeId }, csv).expect(201);
     const r = res.body.result;
-    // y = 2x exactly: Gyx = 2·Gxx and Gyy = 4·Gxx, so H1 = H2 = Hv = 2 and γ² = 1 (engine.md:
+    // y = 2x exactly: Gyx = 2·Gxx and Gyy = 4·Gxx, so H1 = H2 = Hv = 2 and γ² = 1 (docs/engine.md:
     // the coherence of x with ±x is 1; the FRF of a pure gain is that gain).
     expect(r).toMatchObject({ kind: 'time-data', sampleRateHz: 512, samples: 4096, blockLength: 256, averages: 31 });
     expect(r.frequenciesHz[0]).toBe(10);

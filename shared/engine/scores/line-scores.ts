@@ -1,7 +1,7 @@
 /**
  * Line-by-line scores of an estimated FRF against the exact one.
  *
- * Conventions (engine.md, "Errors a result reports"):
+ * Conventions (docs/engine.md, "Errors a result reports"):
  * - magnitude error, dB: 20·log10(|Ĥ| / |H|) (positive = estimate too large);
  * - phase error, degrees: arg(Ĥ · conj(H)), wrapped to (−180, 180] (positive = estimate leads);
  * - complex relative error, fraction: |Ĥ − H| / |H|.
@@ -99,7 +99,7 @@ function checkLengths(input: ScoreFrfInput): number {
 }
 
 /**
- * Scores an estimated FRF against the exact FRF on the band's lines (engine.md conventions above).
+ * Scores an estimated FRF against the exact FRF on the band's lines (docs/engine.md conventions above).
  * Returns per-line arrays over the band and a band summary naming the worst line of each score.
  */
 export function scoreFrf(input: ScoreFrfInput): FrfScore {

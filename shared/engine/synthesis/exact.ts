@@ -1,5 +1,5 @@
 /**
- * Exact synthesis of a linear system's response (engine.md, "Known-answer signals").
+ * Exact synthesis of a linear system's response (docs/engine.md, "Known-answer signals").
  *
  * Over one synthesis record of L = 2^p samples at fs:
  *   X = FFT(x) with the Nyquist line removed (X[L/2] = 0; the input record becomes IFFT(X)),
@@ -14,6 +14,7 @@
  */
 import type { ComplexArray } from '../types';
 import { EngineInputError } from '../errors';
+import { isPowerOfTwo } from '../fft';
 import { oneSidedSpectrum, realFromSpectrum, transformsFor, type RealTransforms } from './spectrum';
 
 export interface OutputChannelErrors {
@@ -42,7 +43,7 @@ export interface SynthesisedPair {
 }
 
 function requirePowerOfTwo(field: string, n: number): void {
-  if (!(Number.isInteger(n) && n >= 4 && (n & (n - 1)) === 0)) {
+  if (!(isPowerOfTwo(n) && n >= 4)) {
     throw new EngineInputError(field, n, 'must be a power of two ≥ 4');
   }
 }

@@ -5,9 +5,10 @@
  * Sizes: record N = round(durationS·fs) samples. A steady-state record takes the first N samples
  * of a synthesis record of L = max(next power of two ≥ N, the excitation period) samples; a record
  * from rest is followed by Z zeros, Z ≥ the 1e-6 decay time ln(1e6)/(ζω_n)_min plus |delay|, and
- * L = next power of two ≥ N + Z (engine.md, exact synthesis).
+ * L = next power of two ≥ N + Z (docs/engine.md, exact synthesis).
  */
 import { EngineInputError } from '../errors';
+import { isPowerOfTwo } from '../fft';
 import { buildSystem, valueAt, type LinearSystem } from '../systems';
 import { slowestDecayRate } from '../systems/facts';
 import { balanceNyquist, bandLines, impactOffsetSamples, wholeSamples } from './excitation';
@@ -41,7 +42,7 @@ export interface SynthesisPlan {
   warnings: string[];
 }
 
-const isPowerOfTwo = (n: number) => Number.isInteger(n) && n >= 4 && (n & (n - 1)) === 0;
+const isBlockPowerOfTwo = (n: number) => isPowerOfTwo(n) && n >= 4;
 
 /** Parses, checks every cross-field rule and sizes the synthesis. */
 export function resolveScenario(json: unknown): { scenario: Scenario; plan: SynthesisPlan } {
@@ -77,7 +78,7 @@ export function resolveScenario(json: unknown): { scenario: Scenario; plan: Synt
   }
   if (e.kind === 'periodic-random' || e.kind === 'pseudo-random') {
     period = wholeSamples('excitation.periodS', e.periodS, fs);
-    if (!isPowerOfTwo(period)) {
+    if (!isBlockPowerOfTwo(period)) {
       throw new EngineInputError('excitation.periodS', e.periodS, `must be a power-of-two number of samples (gives ${period})`);
     }
     requireBandLines(band, period, fs);
@@ -91,7 +92,7 @@ export function resolveScenario(json: unknown): { scenario: Scenario; plan: Synt
     }
   }
   if (e.kind === 'impact') checkImpact(e, fs, period);
-  if (start === 'steady-state' && period > 0 && !isPowerOfTwo(period)) {
+  if (start === 'steady-state' && period > 0 && !isBlockPowerOfTwo(period)) {
     const field = e.kind === 'burst-random' ? 'excitation.blockLengthS' : 'excitation.periodS';
     throw new EngineInputError(field, period / fs, "must be a power-of-two number of samples for a steady-state record (or set acquisition.start to 'from-rest')");
   }

@@ -15,13 +15,6 @@ export function nextPowerOfTwo(n: number): number {
   return p;
 }
 
-/** Line frequencies f_k = k·fs/L for k = 0…L/2, Hz. */
-export function lineFrequencies(length: number, sampleRateHz: number): Float64Array {
-  const f = new Float64Array(length / 2 + 1);
-  for (let k = 0; k < f.length; k++) f[k] = (k * sampleRateHz) / length;
-  return f;
-}
-
 /** Reusable transforms of one power-of-two length L. */
 export class RealTransforms {
   readonly length: number;
@@ -129,12 +122,4 @@ export function oneSidedSpectrum(x: Float64Array, t: RealTransforms = transforms
 /** One real sequence of length L from its one-sided spectrum (imaginary parts at 0, L/2 ignored). */
 export function realFromSpectrum(s: ComplexArray, length: number, t: RealTransforms = transformsFor(length)): Float64Array {
   return t.inverse(s);
-}
-
-/** Two real sequences of length L from their one-sided spectra, one complex inverse FFT. */
-export function realPairFromSpectra(a: ComplexArray, b: ComplexArray, length: number): [Float64Array, Float64Array] {
-  const x = new Float64Array(length);
-  const y = new Float64Array(length);
-  transformsFor(length).inversePair(a, b, x, y);
-  return [x, y];
 }

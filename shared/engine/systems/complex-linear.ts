@@ -121,7 +121,3 @@ export function csqrt(a: Complex): Complex {
   const im = Math.sqrt(Math.max(0, (r - a[0]) / 2));
   return [re, a[1] < 0 ? -im : im];
 }
-
-export function cabs(a: Complex): number {
-  return Math.hypot(a[0], a[1]);
-}

@@ -1,15 +1,12 @@
 /**
  * Studies of the current lab: list, one study with its progress, its results, start and cancel,
  * and live progress (server-sent events on the web, polling where EventSource is missing or the
- * stream fails). Also the recipes and scenarios a study is started from, and their definitions
- * (the per-scenario plots recompute one seed in the browser).
+ * stream fails). The recipes and scenarios a study is started from are read through their own
+ * modules (recipes.ts, scenarios.ts), so each is cached once.
  */
 import { keepPreviousData, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import {
-  recipeVersionSchema,
-  resourceListSchema,
-  scenarioVersionSchema,
   startStudySchema,
   studyEventSchema,
   studyListSchema,
@@ -28,8 +25,6 @@ export const studyKeys = {
   list: (labId: string, filter: { status?: StudyStatus; limit?: number } = {}) => [...studyKeys.lab(labId), 'list', filter] as const,
   detail: (labId: string, id: string) => [...studyKeys.lab(labId), 'detail', id] as const,
   results: (labId: string, id: string) => [...studyKeys.lab(labId), 'results', id] as const,
-  inputs: (labId: string, kind: 'recipes' | 'scenarios') => ['study-inputs', labId, kind] as const,
-  definition: (labId: string, kind: 'recipes' | 'scenarios', id: string, version: number) => ['study-inputs', labId, kind, id, version] as const,
 };
 
 export const isActive = (status: StudyStatus | undefined) => status === 'queued' || status === 'running';
@@ -123,34 +118,6 @@ export function useStudyLive(labId: string, id: string, status: StudyStatus | un
   }, [active, canStream, client, id, labId]);
   if (!active) return 'idle';
   return canStream ? 'stream' : 'polling';
-}
-
-// ---- what a study is started from ------------------------------------------------------------
-
-export function useStudyInputs(labId: string, kind: 'recipes' | 'scenarios') {
-  return useQuery({
-    queryKey: studyKeys.inputs(labId, kind),
-    queryFn: ({ signal }) => api.get(labPath(labId, `/${kind}?limit=200&sort=name&order=asc`), { schema: resourceListSchema, signal }),
-    enabled: labId !== '',
-  });
-}
-
-export function useRecipeVersion(labId: string, id: string, version: number) {
-  return useQuery({
-    queryKey: studyKeys.definition(labId, 'recipes', id, version),
-    queryFn: ({ signal }) => api.get(labPath(labId, `/recipes/${encodeURIComponent(id)}/versions/${version}`), { schema: recipeVersionSchema, signal }),
-    enabled: labId !== '' && id !== '',
-    staleTime: Infinity,
-  });
-}
-
-export function useScenarioVersion(labId: string, id: string, version: number) {
-  return useQuery({
-    queryKey: studyKeys.definition(labId, 'scenarios', id, version),
-    queryFn: ({ signal }) => api.get(labPath(labId, `/scenarios/${encodeURIComponent(id)}/versions/${version}`), { schema: scenarioVersionSchema, signal }),
-    enabled: labId !== '' && id !== '',
-    staleTime: Infinity,
-  });
 }
 
 /** CSV exports of a study (served as attachments by the API). */

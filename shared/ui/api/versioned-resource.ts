@@ -57,8 +57,6 @@ export function createResourceHooks<D, I = D>(kind: ResourceKind, versionSchema:
     client.setQueryData(keys.version(labId, saved.id, saved.version.version), saved);
     void client.invalidateQueries({ queryKey: [...keys.lab(labId), 'list'] });
     void client.invalidateQueries({ queryKey: keys.versions(labId, saved.id) });
-    // The study form lists recipes and scenarios under its own keys.
-    void client.invalidateQueries({ queryKey: ['study-inputs', labId] });
   }
 
   /** The latest version, for callers that fetch on demand (client.fetchQuery with keys.latest). */
@@ -73,6 +71,14 @@ export function createResourceHooks<D, I = D>(kind: ResourceKind, versionSchema:
         queryFn: ({ signal }) => api.get(listPath(labId, kind, filter), { schema: resourceListSchema, signal }),
         enabled: labId !== '',
         placeholderData: keepPreviousData,
+      });
+    },
+    /** Every resource of the lab (up to 200), by name: the choices of the study and upload forms. */
+    useAll(labId: string) {
+      return useQuery<ResourceList>({
+        queryKey: [...keys.lab(labId), 'list', 'all-by-name'],
+        queryFn: ({ signal }) => api.get(labPath(labId, `/${kind}?limit=200&sort=name&order=asc`), { schema: resourceListSchema, signal }),
+        enabled: labId !== '',
       });
     },
     useLatest(labId: string, id: string) {

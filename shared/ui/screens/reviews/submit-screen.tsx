@@ -10,7 +10,8 @@ import { StyleSheet, View } from 'react-native';
 import { EXCITATION_KINDS, submitReviewSchema } from '@/shared/api/approval';
 import { errorText } from '@/shared/ui/api/client';
 import { useSubmitForReview } from '@/shared/ui/api/reviews';
-import { useStudies, useStudyInputs } from '@/shared/ui/api/studies';
+import { recipesApi } from '@/shared/ui/api/recipes';
+import { useStudies } from '@/shared/ui/api/studies';
 import { AppText, Button, Screen, TextField } from '@/shared/ui/components';
 import { useLabId, useLabRole } from '@/shared/ui/lab-context';
 import { colors, radius, space, stroke } from '@/shared/ui/theme';
@@ -26,7 +27,7 @@ export function SubmitReviewScreen() {
   const labId = useLabId();
   const role = useLabRole();
   const router = useRouter();
-  const recipes = useStudyInputs(labId, 'recipes');
+  const recipes = recipesApi.useAll(labId);
   const studies = useStudies(labId, { status: 'finished', limit: 200 });
   const submit = useSubmitForReview(labId);
   const [values, setValues] = useState<SubmitValues>(emptySubmitValues);

@@ -2,7 +2,8 @@
 import { useEffect, useState } from 'react';
 import type { Recipe, Scenario } from '@/shared/engine';
 import type { ScenarioResult, Study } from '@/shared/api/work';
-import { useRecipeVersion, useScenarioVersion } from '@/shared/ui/api/studies';
+import { recipesApi } from '@/shared/ui/api/recipes';
+import { scenariosApi } from '@/shared/ui/api/scenarios';
 import { AppText } from '@/shared/ui/components';
 import { FrfPlot, type FrfCurve, type ZoomBand } from '@/shared/ui/plots';
 import { curveColors } from '@/shared/ui/theme';
@@ -15,8 +16,8 @@ type Props = { labId: string; study: Study; scenario: ScenarioResult; position: 
 type Computed = { status: 'working' } | { status: 'done'; frf: SeedFrf } | { status: 'failed'; error: unknown };
 
 export function SeedFrfPanel({ labId, study, scenario, position, zoomBands, toleranceDb }: Props) {
-  const recipe = useRecipeVersion(labId, study.recipe.id, study.recipe.version);
-  const definition = useScenarioVersion(labId, scenario.scenarioId, scenario.scenarioVersion);
+  const recipe = recipesApi.useVersion(labId, study.recipe.id, study.recipe.version);
+  const definition = scenariosApi.useVersion(labId, scenario.scenarioId, scenario.scenarioVersion);
   const [computed, setComputed] = useState<Computed>({ status: 'working' });
   const recipeDef = recipe.data?.definition as Recipe | undefined;
   const scenarioDef = definition.data?.definition as Scenario | undefined;

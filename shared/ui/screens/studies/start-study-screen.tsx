@@ -1,5 +1,6 @@
 /** /studies/new: the start form, once the lab's recipes and scenarios are in. */
-import { useStudyInputs } from '@/shared/ui/api/studies';
+import { recipesApi } from '@/shared/ui/api/recipes';
+import { scenariosApi } from '@/shared/ui/api/scenarios';
 import { EmptyState } from '@/shared/ui/components';
 import { useCurrentLab } from '@/shared/ui/lab-context';
 import { PageHead, TextLink } from '../kit/panel';
@@ -10,8 +11,8 @@ import { StartStudyForm } from './start-study-form';
 export function StartStudyScreen() {
   const lab = useCurrentLab();
   const labId = lab?.labId ?? '';
-  const recipes = useStudyInputs(labId, 'recipes');
-  const scenarios = useStudyInputs(labId, 'scenarios');
+  const recipes = recipesApi.useAll(labId);
+  const scenarios = scenariosApi.useAll(labId);
   let body;
   if (lab && lab.role !== 'analyst') {
     body = <EmptyState title="Not for your role" body="Only analysts start studies. You can read every study and its results." testID="role-refused" />;

@@ -10,7 +10,7 @@ import type { Db } from '../db/knex';
 import { findStudy, listCurves, studyScenarios } from '../db/studies';
 import { findVersion } from '../db/versioned';
 import { notFound } from '../errors';
-import { canonicalJson } from '../services/audit';
+import { canonicalJson } from './audit';
 
 export const sha256Hex = (text: string | Buffer) => createHash('sha256').update(text).digest('hex');
 
