@@ -10,7 +10,7 @@ import { space } from '@/shared/ui/theme';
 import { PageHead } from '../kit/panel';
 import { WhatIfLink } from '../what-if/what-if-link';
 import { Column } from '../kit/two-pane';
-import { DueStandards, RecentResults, RunningStudies, WaitingReviews } from './home-sections';
+import { DueStandards, RecentResults, ReturnedToYou, RunningStudies, WaitingReviews } from './home-sections';
 
 function firstName(displayName: string) {
   return displayName.trim().split(/\s+/)[0] ?? displayName;
@@ -31,6 +31,7 @@ export function HomeScreen() {
           <RecentResults labId={labId} />
         </View>
         <View style={[styles.col, wide && styles.colWide]}>
+          {lab?.role === 'analyst' && session.status === 'signed-in' ? <ReturnedToYou labId={labId} userId={session.me.user.id} /> : null}
           <WaitingReviews labId={labId} role={lab?.role ?? null} />
           <DueStandards labId={labId} />
         </View>

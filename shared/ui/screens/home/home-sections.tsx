@@ -1,5 +1,6 @@
 /** The four sections of the home screen, each a small query with its own states. */
 import { StyleSheet, View } from 'react-native';
+import type { Submission } from '@/shared/api/approval';
 import type { Role } from '@/shared/api/auth';
 import { useReviews } from '@/shared/ui/api/reviews';
 import { useStandards } from '@/shared/ui/api/standards';
@@ -56,6 +57,29 @@ export function WaitingReviews({ labId, role }: { labId: string; role: Role | nu
         {(d) => (
           <View style={styles.list}>
             {d.items.filter((s) => !mine || s.blockedForYou.length === 0).map((s) => <SubmissionRow key={s.id} submission={s} />)}
+          </View>
+        )}
+      </QueryView>
+    </Panel>
+  );
+}
+
+/** The analyst's own submissions a reviewer returned and that are not yet put forward again. */
+export function ReturnedToYou({ labId, userId }: { labId: string; userId: string }) {
+  const returned = useReviews(labId, { status: 'returned', limit: 50 });
+  const mine = (items: Submission[]) => items.filter((s) => s.submittedBy.id === userId && !s.resubmittedAs);
+  return (
+    <Panel title="Returned to you" testID="home-returned">
+      <QueryView query={returned} isEmpty={(d) => mine(d.items).length === 0}
+        empty={{ title: 'Nothing returned to you', body: 'A submission of yours that a reviewer sends back appears here with its reason, until you submit it again.' }}>
+        {(d) => (
+          <View style={styles.list}>
+            {mine(d.items).map((s) => (
+              <View key={s.id} style={styles.text}>
+                <SubmissionRow submission={s} />
+                {s.decision?.reason ? <AppText variant="small">{`Reason: ${s.decision.reason}`}</AppText> : null}
+              </View>
+            ))}
           </View>
         )}
       </QueryView>
