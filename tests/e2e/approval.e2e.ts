@@ -68,7 +68,7 @@ async function submitForm(page: Page, recipeName: string, studyName: string) {
   await page.getByLabel('Band to (Hz)').fill('1000');
   await page.getByLabel('Damping from (% of critical)').fill('0.5');
   await page.getByLabel('Damping to (% of critical)').fill('1.2');
-  await page.getByRole('checkbox', { name: 'Impact' }).click();
+  await page.getByTestId('submit-excitations').getByRole('checkbox', { name: 'Impact', exact: true }).click();
   await page.getByLabel('Purpose (optional)').fill('Hammer standard for the motor arm programme');
 }
 
