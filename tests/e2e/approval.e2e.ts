@@ -6,8 +6,9 @@
  * again; the standard page and the validation report then show the signed version's settings.
  * Every wait has a deadline and fails with what did not happen.
  */
+import path from 'node:path';
 import { request as playwrightRequest, type Page } from 'playwright-core';
-import { DEMO_PASSWORD, expect, openPage, screenshot, signIn, type Harness, type ViewportName } from './harness';
+import { DEMO_PASSWORD, expect, openPage, screenshot, SCREENSHOTS, signIn, type Harness, type ViewportName } from './harness';
 
 const T = 60_000;
 const IMPACT_RECIPE = 'Arm impact, force + exponential';
@@ -57,6 +58,9 @@ async function waitText(page: Page, testId: string, pattern: RegExp, what: strin
     throw new Error(`${what}: expected ${pattern} in ${testId}, saw "${seen.slice(0, 300)}"`);
   }
 }
+
+/** The settings panel alone (the app scrolls inside its panes, so a page shot shows only the top). */
+const settingsShot = (page: Page, name: string) => page.getByTestId('settings-summary').first().screenshot({ path: path.join(SCREENSHOTS, `${name}.png`) });
 
 async function submitForm(page: Page, recipeName: string, studyName: string) {
   await page.getByTestId('submit-send').waitFor({ timeout: T });
@@ -110,6 +114,7 @@ function approvalJourney(viewport: ViewportName) {
         const returned = (await reviewer.page.getByTestId('decision-record').textContent()) ?? '';
         expect(!/signature sha256/.test(returned), `a return shows a signature hash: "${returned.slice(0, 200)}"`);
         await screenshot(reviewer.page, `approval-returned-${viewport}`);
+        await reviewer.page.getByTestId('decision-record').screenshot({ path: path.join(SCREENSHOTS, `approval-returned-record-${viewport}.png`) });
 
         // 3. The analyst sees it returned on the Bench and resubmits from the review page.
         await analyst.page.goto('/');
@@ -142,10 +147,12 @@ function approvalJourney(viewport: ViewportName) {
         await waitText(reviewer.page, 'settings-summary', /Force window[\s\S]*2 % of the block/, 'the standard page lacks the settings');
         await waitText(reviewer.page, 'settings-summary', /Phase error, 95th percentile over seeds, worst line≤ 10°/, 'the standard page lacks the criteria with tolerances');
         await screenshot(reviewer.page, `approval-standard-${viewport}`);
+        await settingsShot(reviewer.page, `approval-standard-settings-${viewport}`);
         await reviewer.page.getByTestId('standard-report').click();
         await waitText(reviewer.page, 'report-identity', /revision 1 · sha256 [0-9a-f]{64}/, 'the report does not show its revision and hash');
         await waitText(reviewer.page, 'report-sheet', /Exponential window on the response, τ25 % of the block/, 'the report lacks the settings');
         await screenshot(reviewer.page, `approval-report-${viewport}`);
+        await settingsShot(reviewer.page, `approval-report-settings-${viewport}`);
         expect(analyst.problems.length === 0 && reviewer.problems.length === 0, `console errors:\n${[...analyst.problems, ...reviewer.problems].join('\n')}`);
       } finally {
         await analyst.close();

@@ -131,6 +131,19 @@ describe('a returned submission', () => {
     expect((screen.getByLabelText('Band to (Hz)') as HTMLInputElement).value).toBe('1000');
   });
 
+  test("appears as returned to its author on the Bench, with the reason, until it is put forward again", async () => {
+    const mine = returnedBy(submission());
+    const other = returnedBy(submission({ id: 'sub-3', submittedBy: { id: 'user-analyst-2', displayName: 'Ines Varga' } }));
+    const again = submission({ ...returnedBy(submission({ id: 'sub-4' })), resubmittedAs: 'sub-5' });
+    installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/reviews')}`]: ok(page([mine, other, again])), [`GET ${lab('/studies')}`]: ok(page([])), [`GET ${lab('/standards')}`]: ok(page([])) });
+    await renderApp('/');
+    const panel = await screen.findByTestId('home-returned', {}, WAIT);
+    expect(within(panel).getByTestId('review-row-sub-1')).toBeTruthy();
+    expect(within(panel).queryByTestId('review-row-sub-3')).toBeNull();
+    expect(within(panel).queryByTestId('review-row-sub-4')).toBeNull();
+    expect(panel.textContent).toContain('Reason: Add a study with noise on the force channel.');
+  });
+
   test('someone else gets no resubmit action', async () => {
     installEvidenceApi(reviewRoutes(returnedBy(submission()), 'reviewer'));
     await renderApp('/reviews/sub-1');

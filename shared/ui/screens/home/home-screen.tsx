@@ -25,13 +25,13 @@ export function HomeScreen() {
   return (
     <Column title="Bench">
       <PageHead title="Bench" eyebrow={name ? `Welcome, ${name}` : 'Welcome'} intro={lab ? `${lab.labName}: your work in progress, and what is waiting for you.` : 'You are not a member of any lab yet.'} actions={<WhatIfLink />} />
+      {lab?.role === 'analyst' && session.status === 'signed-in' ? <ReturnedToYou labId={labId} userId={session.me.user.id} /> : null}
       <View style={[styles.grid, wide && styles.gridWide]}>
         <View style={[styles.col, wide && styles.colWide]}>
           <RunningStudies labId={labId} canStart={lab?.role === 'analyst'} />
           <RecentResults labId={labId} />
         </View>
         <View style={[styles.col, wide && styles.colWide]}>
-          {lab?.role === 'analyst' && session.status === 'signed-in' ? <ReturnedToYou labId={labId} userId={session.me.user.id} /> : null}
           <WaitingReviews labId={labId} role={lab?.role ?? null} />
           <DueStandards labId={labId} />
         </View>

@@ -64,25 +64,25 @@ export function WaitingReviews({ labId, role }: { labId: string; role: Role | nu
   );
 }
 
-/** The analyst's own submissions a reviewer returned and that are not yet put forward again. */
+/**
+ * The analyst's own submissions a reviewer returned and that are not yet put forward again, at the
+ * top of the Bench; the panel is left out while there are none.
+ */
 export function ReturnedToYou({ labId, userId }: { labId: string; userId: string }) {
   const returned = useReviews(labId, { status: 'returned', limit: 50 });
-  const mine = (items: Submission[]) => items.filter((s) => s.submittedBy.id === userId && !s.resubmittedAs);
+  const mine = (returned.data?.items ?? []).filter((s: Submission) => s.submittedBy.id === userId && !s.resubmittedAs);
+  if (mine.length === 0) return null;
   return (
     <Panel title="Returned to you" testID="home-returned">
-      <QueryView query={returned} isEmpty={(d) => mine(d.items).length === 0}
-        empty={{ title: 'Nothing returned to you', body: 'A submission of yours that a reviewer sends back appears here with its reason, until you submit it again.' }}>
-        {(d) => (
-          <View style={styles.list}>
-            {mine(d.items).map((s) => (
-              <View key={s.id} style={styles.text}>
-                <SubmissionRow submission={s} />
-                {s.decision?.reason ? <AppText variant="small">{`Reason: ${s.decision.reason}`}</AppText> : null}
-              </View>
-            ))}
+      <AppText variant="body">A reviewer sent these back. Read the reason, then open one to submit it again.</AppText>
+      <View style={styles.list}>
+        {mine.map((s) => (
+          <View key={s.id} style={styles.text}>
+            <SubmissionRow submission={s} />
+            {s.decision?.reason ? <AppText variant="small">{`Reason: ${s.decision.reason}`}</AppText> : null}
           </View>
-        )}
-      </QueryView>
+        ))}
+      </View>
     </Panel>
   );
 }
