@@ -6,8 +6,8 @@
  * Retiring without a reason is a 400 whose message is the plain sentence, naming the reason field
  * in its details; nothing is retired.
  */
-import { createWork, finishedStudy, frameRecipe, frameScope, signInAll, type Agents, type WorkIds } from './approval-fixtures';
-import { startTestServer, TEST_PASSWORD, type TestServer } from './helpers';
+import { approvedStandard, createWork, frameRecipe, signInAll, type Agents, type WorkIds } from './approval-fixtures';
+import { startTestServer, type TestServer } from './helpers';
 
 let t: TestServer;
 let as: Agents;
@@ -19,14 +19,7 @@ beforeAll(async () => {
   t = await startTestServer();
   as = await signInAll(t);
   w = await createWork(t, as.analyst);
-  const studyId = await finishedStudy(as.analyst, w, 1);
-  const sub = await as.analyst.post(`${w.lab}/reviews`).send({ recipe: { id: w.recipe, version: 1 }, studyIds: [studyId], scope: frameScope }).expect(201);
-  submissionId = sub.body.id;
-  const ok = await as.reviewer
-    .post(`${w.lab}/reviews/${submissionId}/decision`)
-    .send({ decision: 'approved', password: TEST_PASSWORD, meaning: 'Approved as lab standard for single-mode frames' })
-    .expect(200);
-  standardId = ok.body.standardId;
+  ({ standardId, submissionId } = await approvedStandard(as, w));
 }, 60_000);
 afterAll(() => t.close());
 
@@ -93,11 +86,7 @@ describe('retiring needs a reason', () => {
   let other: string;
 
   beforeAll(async () => {
-    const w2 = await createWork(t, as.analyst, frameRecipe('Frame recipe for the retire checks'));
-    const study = await finishedStudy(as.analyst, w2, 1);
-    const sub = await as.analyst.post(`${w2.lab}/reviews`).send({ recipe: { id: w2.recipe, version: 1 }, studyIds: [study], scope: frameScope }).expect(201);
-    const ok = await as.reviewer.post(`${w2.lab}/reviews/${sub.body.id}/decision`).send({ decision: 'approved', password: TEST_PASSWORD, meaning: 'Approved as lab standard for frames' }).expect(200);
-    other = ok.body.standardId;
+    other = (await approvedStandard(as, await createWork(t, as.analyst, frameRecipe('Frame recipe for the retire checks')))).standardId;
   }, 60_000);
 
   it.each([
