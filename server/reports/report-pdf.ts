@@ -49,10 +49,14 @@ function field(doc: Doc, name: string, value: string, mono = false) {
   doc.x = MARGIN;
 }
 
+/** Letters the shipped text fonts lack (checked with fontkit), spelt out so they never print as blanks. */
+const SPELT: Record<string, string> = { 'κ': 'kappa', 'τ': 'tau', 'β': 'beta', '→': '->' };
+const pdfSafe = (text: string) => text.replace(/[κτβ→]/g, (c) => SPELT[c]!);
+
 const rowValue = (r: SettingsRow) => `${r.value}${r.unit && r.value !== '—' ? (r.unit === '°' ? '°' : ` ${r.unit}`) : ''}${r.note ? ` (${r.note})` : ''}`;
 
 function settingsRows(doc: Doc, rows: SettingsRow[]) {
-  for (const r of rows) field(doc, r.label, rowValue(r));
+  for (const r of rows) field(doc, pdfSafe(r.label), pdfSafe(rowValue(r)));
 }
 
 function criteriaTable(doc: Doc, rows: ReportContent['studies'][number]['scenarios'][number]['criteria']) {
@@ -164,7 +168,7 @@ export function renderReportPdf(record: ReportRecord, content: ReportContent): P
   field(doc, 'revision', `${record.revision} of this report`);
   field(doc, 'content sha256', record.sha256, true);
   field(doc, 'made', iso(record.createdAt));
-  if (record.changes.length) field(doc, `changes in revision ${record.revision}`, record.changes.join('\n'));
+  if (record.changes.length) field(doc, `changes in revision ${record.revision}`, pdfSafe(record.changes.join('\n')));
   if (content.standard && content.standard.status !== 'active') {
     para(doc, `This standard is ${content.standard.status.toUpperCase()}: the lab no longer cites it as current.`, 'bold', 10);
   }
