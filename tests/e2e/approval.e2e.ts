@@ -3,7 +3,8 @@
  * analyst submits a recipe version with a finished study as evidence; the demo reviewer returns it
  * with a reason; the analyst finds it "Returned to you" on the Bench and resubmits it from the
  * review page (the submit form comes filled); the reviewer signs it off with the password entered
- * again; the standard page and the validation report then show the signed version's settings.
+ * again; the standard page and the validation report then show the signed version's settings,
+ * and their link to the version opens the recipe, which says that version is approved.
  * Every wait has a deadline and fails with what did not happen.
  */
 import path from 'node:path';
@@ -153,6 +154,12 @@ function approvalJourney(viewport: ViewportName) {
         await waitText(reviewer.page, 'report-sheet', /Exponential window on the response, τ25 % of the block/, 'the report lacks the settings');
         await screenshot(reviewer.page, `approval-report-${viewport}`);
         await settingsShot(reviewer.page, `approval-report-settings-${viewport}`);
+
+        // 6. The link to the signed version opens the recipe, which says the version is approved.
+        await reviewer.page.getByTestId('settings-recipe-link').click();
+        await waitText(reviewer.page, 'recipe-version-1', /Approved[\s\S]*approved: a standard of the lab/, 'the recipe page does not say version 1 is approved');
+        await reviewer.page.getByTestId('recipe-standard-1').waitFor({ timeout: T });
+        await reviewer.page.getByTestId('recipe-review-state').screenshot({ path: path.join(SCREENSHOTS, `approval-recipe-state-${viewport}.png`) });
         expect(analyst.problems.length === 0 && reviewer.problems.length === 0, `console errors:\n${[...analyst.problems, ...reviewer.problems].join('\n')}`);
       } finally {
         await analyst.close();
