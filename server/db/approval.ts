@@ -62,6 +62,9 @@ export interface SubmissionRow {
   submitted_at: number;
   decision_id: string | null;
   standard_id: string | null;
+  standard_status: 'active' | 'retired' | 'superseded' | null;
+  /** The next submission of the same recipe after this one, if any. */
+  resubmitted_as: string | null;
 }
 
 export interface NewSubmission {
@@ -107,7 +110,19 @@ const SUBMISSION_COLUMNS = [
   'u.display_name as submitted_by_name',
   'd.id as decision_id',
   'st.id as standard_id',
+  'st.status as standard_status',
 ];
+
+/** The columns of a submission row, with the next submission of the same recipe. */
+function submissionColumns(db: Db) {
+  const next = db({ s2: 'review_submissions' })
+    .whereRaw('s2.recipe_id = s.recipe_id')
+    .andWhereRaw('(s2.submitted_at > s.submitted_at or (s2.submitted_at = s.submitted_at and s2.rowid > s.rowid))')
+    .orderBy([{ column: 's2.submitted_at' }, { column: 's2.rowid' }])
+    .limit(1)
+    .select('s2.id');
+  return [...SUBMISSION_COLUMNS, next.as('resubmitted_as')];
+}
 
 function submissions(db: Db) {
   return db({ s: 'review_submissions' })
@@ -119,7 +134,7 @@ function submissions(db: Db) {
 }
 
 export function findSubmission(db: Db, labId: string, id: string): Promise<SubmissionRow | undefined> {
-  return submissions(db).where({ 's.lab_id': labId, 's.id': id }).first(SUBMISSION_COLUMNS);
+  return submissions(db).where({ 's.lab_id': labId, 's.id': id }).first(submissionColumns(db));
 }
 
 export interface SubmissionFilter {
@@ -142,7 +157,7 @@ export async function listSubmissions(db: Db, labId: string, f: SubmissionFilter
     .orderBy([{ column: 's.submitted_at', order: f.status === 'pending' ? 'asc' : 'desc' }, { column: 's.id' }])
     .limit(page.limit)
     .offset(page.offset)
-    .select(SUBMISSION_COLUMNS);
+    .select(submissionColumns(db));
   return { rows, total: Number(count?.n ?? 0) };
 }
 
@@ -215,5 +230,5 @@ export function submissionWithStudy(db: Db, labId: string, studyId: string): Pro
     .join({ e: 'review_evidence' }, 'e.submission_id', 's.id')
     .where({ 's.lab_id': labId, 'e.study_id': studyId })
     .orderByRaw("case when d.decision = 'approved' then 0 else 1 end, s.submitted_at desc")
-    .first(SUBMISSION_COLUMNS);
+    .first(submissionColumns(db));
 }

@@ -19,7 +19,9 @@ import { getStandard } from '../services/standards';
 import { getStudyResults } from '../services/study-results';
 import { evidenceDocument, evidenceSha256 } from '../services/evidence';
 import { scenarioPlot } from './report-plots';
-import { acceptanceWords, acquisitionWords, errorSourceWords, excitationWords, recipeWords, systemWords } from './scenario-words';
+import { settingsSummary } from '@/shared/api/settings-summary';
+import { studySampleRates } from './recipe-settings';
+import { acquisitionWords, errorSourceWords, excitationWords, systemWords } from './scenario-words';
 
 export const CAUTIONS = [
   'Synthetic verification checks the processing, not the transducers, the fixture or the test set-up: it does not replace calibration, the lab\'s accredited procedures or engineering judgement.',
@@ -134,8 +136,7 @@ export async function studyReportContent(db: Db, labId: string, studyId: string)
     scope: submission ? (JSON.parse(submission.scope_json) as Scope) : null,
     recipe: entry,
     studies,
-    processing: recipeWords(recipe),
-    acceptanceCriteria: acceptanceWords(recipe),
+    settings: settingsSummary(entry, recipe, await studySampleRates(db, [studyId])),
     justification: submission?.justification ?? null,
     signature: decision?.decision === 'approved' ? signatureOf(decision) : null,
     standard: null,
@@ -163,8 +164,7 @@ export async function standardReportContent(db: Db, labId: string, standardId: s
     scope: s,
     recipe: entry,
     studies,
-    processing: recipeWords(recipe),
-    acceptanceCriteria: acceptanceWords(recipe),
+    settings: settingsSummary(entry, recipe, await studySampleRates(db, standard.evidenceStudyIds)),
     justification: (await findSubmission(db, labId, standard.submissionId))?.justification ?? null,
     signature: standard.signature,
     standard: {

@@ -1,6 +1,7 @@
 /**
  * The validation report as a PDF (pdfkit, A4, the shipped fonts): header with the report's own
- * id and sha256, scope and purpose, the recipe, the acceptance criteria, per study and scenario the
+ * id, revision and sha256 (and what the revision changed), scope and purpose, the recipe with its
+ * processing settings and acceptance criteria (the shared settings summary), per study and scenario the
  * set-up (system, error sources, seeds), the criteria with PASS/FAIL in words and five vector
  * plots, the justification, the signature block, the standard's dates, the evidence check, the
  * engine version, the reproducibility statement and the cautions. Every page's footer repeats the
@@ -8,6 +9,7 @@
  */
 import PDFDocument from 'pdfkit';
 import { auditTrailLine, type ReportContent, type ReportRecord, type ReportTrail } from '@/shared/api/approval';
+import type { SettingsRow } from '@/shared/api/settings-summary';
 import { registerFonts } from './pdf-fonts';
 import { BRASS, drawPlot, ESTIMATOR_COLOURS, INK, MOSS, type PlotSpec } from './pdf-plots';
 
@@ -45,6 +47,16 @@ function field(doc: Doc, name: string, value: string, mono = false) {
   doc.font(mono ? 'mono' : 'text').fontSize(mono ? 8 : 8.5).text(value, MARGIN + 135, y, { width: valueWidth });
   doc.y = y + Math.max(nameHeight, valueHeight, 11) + 2;
   doc.x = MARGIN;
+}
+
+/** Letters the shipped text fonts lack (checked with fontkit), spelt out so they never print as blanks. */
+const SPELT: Record<string, string> = { 'κ': 'kappa', 'τ': 'tau', 'β': 'beta', '→': '->' };
+const pdfSafe = (text: string) => text.replace(/[κτβ→]/g, (c) => SPELT[c]!);
+
+const rowValue = (r: SettingsRow) => `${r.value}${r.unit && r.value !== '—' ? (r.unit === '°' ? '°' : ` ${r.unit}`) : ''}${r.note ? ` (${r.note})` : ''}`;
+
+function settingsRows(doc: Doc, rows: SettingsRow[]) {
+  for (const r of rows) field(doc, pdfSafe(r.label), pdfSafe(rowValue(r)));
 }
 
 function criteriaTable(doc: Doc, rows: ReportContent['studies'][number]['scenarios'][number]['criteria']) {
@@ -153,8 +165,13 @@ export function renderReportPdf(record: ReportRecord, content: ReportContent, tr
   para(doc, content.lab.name, 'bold', 10);
   para(doc, content.title, 'bold', 15);
   field(doc, 'report id', record.id, true);
+  field(doc, 'revision', `${record.revision} of this report`);
   field(doc, 'content sha256', record.sha256, true);
   field(doc, 'made', iso(record.createdAt));
+  if (record.changes.length) field(doc, `changes in revision ${record.revision}`, pdfSafe(record.changes.join('\n')));
+  if (content.standard && content.standard.status !== 'active') {
+    para(doc, `This standard is ${content.standard.status.toUpperCase()}: the lab no longer cites it as current.`, 'bold', 10);
+  }
   field(doc, 'engine version', content.engineVersion, true);
   field(doc, 'audit trail', auditTrailLine(trail).replace(/^audit trail: /, ''), true);
 
@@ -171,9 +188,10 @@ export function renderReportPdf(record: ReportRecord, content: ReportContent, tr
   heading(doc, `The recipe: "${content.recipe.name}" version ${content.recipe.version} (${content.recipe.state.replace('_', ' ')})`);
   field(doc, 'recipe id', content.recipe.id, true);
   field(doc, 'author of this version', content.recipe.author.displayName);
-  field(doc, 'processing', content.processing.join('\n'));
+  heading(doc, 'Processing settings');
+  settingsRows(doc, content.settings.rows.filter((r) => r.group === 'processing'));
   heading(doc, 'Acceptance criteria');
-  for (const c of content.acceptanceCriteria) field(doc, c.label, c.limit);
+  settingsRows(doc, content.settings.rows.filter((r) => r.group === 'criteria'));
 
   for (const study of content.studies) studySection(doc, study, estimator);
 

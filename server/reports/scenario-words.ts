@@ -1,9 +1,8 @@
 /**
- * A scenario and a recipe in words, for a validation report: the known-answer system, the
- * acquisition, the excitation, each error source that is on, and the acceptance criteria.
+ * A scenario in words, for a validation report: the known-answer system, the acquisition, the
+ * excitation and each error source that is on (the recipe's settings: shared/api/settings-summary).
  * Units always stated; damping as % of critical.
  */
-import type { Recipe } from '@/shared/engine/recipe';
 import type { Scenario } from '@/shared/engine/scenario';
 import { buildSystem } from '@/shared/engine/systems';
 
@@ -53,35 +52,4 @@ export function errorSourceWords(s: Scenario): string[] {
   if (e.cubicStiffness) out.push(`cubic stiffness k3 = ${n(e.cubicStiffness.k3NPerM3)} N/m³ on spring ${e.cubicStiffness.springIndex}`);
   if (e.clipping) out.push(`clipping${e.clipping.inputLimitN ? ` force at ±${n(e.clipping.inputLimitN)} N` : ''}${e.clipping.outputLimit ? ` response at ±${n(e.clipping.outputLimit)}` : ''}`);
   return out.length ? out : ['none (clean signals: only leakage and averaging from the recipe itself)'];
-}
-
-/** The recipe's acceptance tolerances as the criteria a study judges (scores/criteria.ts). */
-export function acceptanceWords(r: Recipe): { label: string; limit: string }[] {
-  const t = r.tolerances;
-  const out: { label: string; limit: string }[] = [];
-  if (t.magnitudeDb !== undefined) {
-    out.push({ label: 'magnitude bias: max over lines of |mean magnitude error|', limit: `≤ ${n(t.magnitudeDb)} dB` });
-    out.push({ label: 'magnitude error, 95th percentile over seeds, worst line', limit: `≤ ${n(t.magnitudeDb)} dB` });
-  }
-  if (t.phaseDeg !== undefined) out.push({ label: 'phase error, 95th percentile over seeds, worst line', limit: `≤ ${n(t.phaseDeg)} degrees` });
-  if (t.complexRelative !== undefined) out.push({ label: 'complex relative error |H_est − H|/|H|, 95th percentile, worst line', limit: `≤ ${n(t.complexRelative)}` });
-  if (t.resonanceFrequencyPercent !== undefined) out.push({ label: 'resonance frequency error, 95th percentile, worst mode', limit: `≤ ${n(t.resonanceFrequencyPercent)} %` });
-  if (t.dampingPercent !== undefined) out.push({ label: 'damping error, 95th percentile, worst mode', limit: `≤ ${n(t.dampingPercent)} %` });
-  if (t.coveragePercent !== undefined) out.push({ label: 'coverage of the 95 % magnitude confidence band', limit: `≥ ${n(t.coveragePercent)} %` });
-  if (t.minCoherence !== undefined) out.push({ label: 'coherence, 5th percentile over seeds, worst line', limit: `≥ ${n(t.minCoherence)}` });
-  return out;
-}
-
-export function recipeWords(r: Recipe): string[] {
-  const block = r.blockLength !== undefined ? `block ${r.blockLength} samples` : `resolution ${n(r.frequencyResolutionHz!)} Hz`;
-  const lines = [
-    `${block}, ${r.window} window, overlap ${n(r.overlap * 100)} %, averages ${r.averages ?? 'all'}`,
-    `estimator ${r.estimator}${r.hvWeight ? ` (weight ${n(r.hvWeight)})` : ''}, detrend ${r.detrend}, ${r.scaling} scaling`,
-    `band of interest ${n(r.band.lowHz)}–${n(r.band.highHz)} Hz`,
-  ];
-  if (r.transient) {
-    const t = r.transient;
-    lines.push(`transient: force window ${n(t.forceWindowFraction * 100)} % of the block, exponential decay ${n(t.exponentialDecayFraction)}, trigger ${n(t.triggerLevelFraction * 100)} %, pretrigger ${n(t.pretriggerFraction * 100)} %`);
-  }
-  return lines;
 }

@@ -88,6 +88,8 @@ export function submissionView(
     status: decision ? decision.decision : 'pending',
     decision: decision ? decisionView(decision) : null,
     standardId: row.standard_id,
+    standardStatus: row.standard_status ?? null,
+    resubmittedAs: row.resubmitted_as ?? null,
     blockedForYou,
   };
 }

@@ -17,8 +17,8 @@ export function reportRoutes(deps: Pick<AppDeps, 'db'>): Router {
   const { db } = deps;
   const sendPdf = async (res: Response, labId: string, userId: string, kind: ReportKind, id: string) => {
     const { report, pdf } = await makeReportPdf(db, labId, userId, kind, id);
-    res.set({ 'X-Report-Id': report.id, 'X-Report-Sha256': report.sha256 });
-    res.type('application/pdf').attachment(`plumbline-${kind}-report-${report.id}.pdf`).send(pdf);
+    res.set({ 'X-Report-Id': report.id, 'X-Report-Revision': String(report.revision), 'X-Report-Sha256': report.sha256 });
+    res.type('application/pdf').attachment(`plumbline-${kind}-report-${report.id}-revision-${report.revision}.pdf`).send(pdf);
   };
   // The .pdf routes come first: ':id' alone would also match "x.pdf".
   labRoute(r, db, { method: 'get', path: '/labs/:labId/reports/study/:id.pdf', action: 'reports.read', summary: "A study's validation report as PDF", produces: 'application/pdf' }, async (req, res) => {

@@ -24,7 +24,7 @@ export function standardRoutes(deps: Pick<AppDeps, 'db'>): Router {
     res.json(await getStandard(db, req.lab.id, parseBody(idParam, req.params).id));
   });
   labRoute(r, db, { method: 'post', path: `${base}/:id/retire`, action: 'standards.retire', summary: 'Retire an active standard (its record stays)', body: retireSchema, response: standardSchema }, async (req, res) => {
-    const { reason } = parseBody(retireSchema, req.body);
+    const { reason } = parseBody(retireSchema, req.body, { plain: true });
     res.json(await retireStandard(db, req.lab.id, req.user.id, parseBody(idParam, req.params).id, reason));
   });
   labRoute(r, db, { method: 'post', path: `${base}/:id/reverify`, action: 'reverify.run', summary: "Re-run a standard's evidence on today's engine and compare line by line", response: reverifySchema }, async (req, res) => {

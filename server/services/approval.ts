@@ -27,6 +27,7 @@ import { findResource, findVersion } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import type { Mailer } from '../mail/mailer';
 import { evidenceDocument, evidenceSha256, signatureSha256 } from './evidence';
+import { recipeSettings } from '../reports/recipe-settings';
 import { scopeCoverage } from './scope-coverage';
 import { alreadyDecided, blockedMessages, independenceRefusals, staleVersion, submissionView } from '../reports/submission-view';
 import { recordAudit } from './audit';
@@ -156,7 +157,8 @@ export async function getEvidence(db: Db, labId: string, id: string, viewer: Vie
       })),
     });
   }
-  return { submission, recipeDefinition: JSON.parse(version!.body), studies };
+  const settings = await recipeSettings(db, submission.recipe.id, submission.recipe.version, submission.studies.map((s) => s.id));
+  return { submission, recipeDefinition: JSON.parse(version!.body), settings, studies };
 }
 
 /** Records a refused decision in its own transaction and throws the refusal. */

@@ -11,7 +11,7 @@ import type { AuditRow } from '../db/audit';
 import { evidenceStudyIds, findSubmission, labDecisions, type DecisionRow } from '../db/approval';
 import type { Db } from '../db/knex';
 import { findUserById } from '../db/users';
-import { evidenceDocument, evidenceSha256, signatureSha256 } from '../reports/evidence';
+import { evidenceDocument, evidenceSha256, signatureSha256 } from './evidence';
 
 export interface SignatureProblem {
   /** The decision entry of the trail it concerns, when there is one. */

@@ -10,6 +10,7 @@ import type { Db } from '../db/knex';
 import { endStandard, excitationsOf, findStandard, listStandards, standardById, standardByVersion, type StandardRow } from '../db/standards';
 import { findResource } from '../db/versioned';
 import { AppError, notFound } from '../errors';
+import { recipeSettings } from '../reports/recipe-settings';
 import { recordAudit } from './audit';
 
 export function scopeOf(s: StandardRow): Scope {
@@ -24,6 +25,7 @@ export function scopeOf(s: StandardRow): Scope {
 async function standardView(db: Db, s: StandardRow): Promise<Standard> {
   const d = await findDecision(db, s.submission_id);
   if (!d) throw new Error(`standard ${s.id} has no decision`);
+  const studyIds = await evidenceStudyIds(db, s.submission_id);
   const link = async (id: string | null) => {
     const row = id ? await standardById(db, id) : undefined;
     return row ? { id: row.id, recipeVersion: row.recipe_version } : null;
@@ -50,7 +52,8 @@ async function standardView(db: Db, s: StandardRow): Promise<Standard> {
       signatureSha256: d.signature_sha256,
     },
     submissionId: s.submission_id,
-    evidenceStudyIds: await evidenceStudyIds(db, s.submission_id),
+    evidenceStudyIds: studyIds,
+    settings: await recipeSettings(db, s.recipe_id, s.recipe_version, studyIds),
   };
 }
 

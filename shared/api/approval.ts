@@ -6,6 +6,7 @@
  */
 import { z } from 'zod';
 import { id, millis, pageOf, paging, person } from './common';
+import { settingsSummarySchema } from './settings-summary';
 
 // ---- lifecycle -------------------------------------------------------------------------------
 
@@ -131,6 +132,10 @@ export const submissionSchema = z.object({
   status: z.enum(SUBMISSION_STATUSES),
   decision: decisionViewSchema.nullable(),
   standardId: z.string().nullable(),
+  /** The status of the standard it became (a retired standard is no longer the lab's). */
+  standardStatus: z.enum(['active', 'retired', 'superseded']).nullable().default(null),
+  /** A later submission of the same recipe (a returned one put forward again). */
+  resubmittedAs: z.string().nullable().default(null),
   /** Why the signed-in user may not decide this submission (empty when they may). */
   blockedForYou: z.array(z.string()),
 });
@@ -147,6 +152,8 @@ export const reviewListSchema = pageOf(submissionSchema);
 export const evidenceSchema = z.object({
   submission: submissionSchema,
   recipeDefinition: z.record(z.string(), z.unknown()),
+  /** The recipe version's settings as labelled rows (null when its definition cannot be read). */
+  settings: settingsSummarySchema.nullable().default(null),
   studies: z.array(
     z.object({
       id: z.string(),
@@ -211,6 +218,8 @@ export const standardSchema = z.object({
   signature: signatureSchema,
   submissionId: z.string(),
   evidenceStudyIds: z.array(z.string()),
+  /** The approved recipe version's settings as labelled rows. */
+  settings: settingsSummarySchema.nullable().default(null),
 });
 export type Standard = z.infer<typeof standardSchema>;
 
@@ -233,10 +242,30 @@ export const standardListQuerySchema = z.object({
 export type StandardListQuery = z.infer<typeof standardListQuerySchema>;
 export const standardListSchema = pageOf(standardSchema);
 
-export const retireSchema = z.object({ reason: z.string().trim().min(10, 'Give the reason for retiring it (at least 10 characters)').max(2000) });
+const RETIRE_REASON = 'Give the reason for retiring it (at least 10 characters)';
+export const retireSchema = z.object({
+  reason: z.string({ error: RETIRE_REASON }).trim().min(10, RETIRE_REASON).max(2000, 'Keep the reason under 2000 characters'),
+});
 
 // ---- reports ---------------------------------------------------------------------------------
 
+/** One revision of a controlled report: its number, hash, when it was made and what changed. */
+export const reportRevisionSchema = z.object({
+  revision: z.number().int().min(1),
+  /** The revision's own id (the report's id names the report across its revisions). */
+  revisionId: z.string(),
+  sha256: z.string(),
+  createdAt: millis,
+  createdBy: person.nullable(),
+  /** What changed from the revision before, in words (empty for revision 1). */
+  changes: z.array(z.string()),
+});
+export type ReportRevision = z.infer<typeof reportRevisionSchema>;
+
+/**
+ * A controlled report: one per study or standard, the same id across its revisions. The fields
+ * below `id` describe the revision shown (the newest, unless a revision id was asked for).
+ */
 export const reportRecordSchema = z.object({
   id: z.string(),
   labId: z.string(),
@@ -246,6 +275,11 @@ export const reportRecordSchema = z.object({
   sha256: z.string(),
   createdAt: millis,
   createdBy: person.nullable(),
+  revision: z.number().int().min(1).default(1),
+  revisionId: z.string().default(''),
+  changes: z.array(z.string()).default([]),
+  /** Every revision of the report, oldest first. */
+  revisions: z.array(reportRevisionSchema).default([]),
 });
 export type ReportRecord = z.infer<typeof reportRecordSchema>;
 
@@ -325,9 +359,8 @@ export const reportContentSchema = z.object({
       ),
     }),
   ),
-  /** The recipe's processing settings in words. */
-  processing: z.array(z.string()),
-  acceptanceCriteria: z.array(z.object({ label: z.string(), limit: z.string() })),
+  /** The recipe version's processing settings and acceptance criteria as labelled rows. */
+  settings: settingsSummarySchema,
   justification: z.string().nullable(),
   signature: signatureSchema.nullable(),
   standard: z

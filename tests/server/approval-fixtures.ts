@@ -5,7 +5,7 @@
  */
 import type request from 'supertest';
 import type { Role } from '@/shared/api/auth';
-import type { TestServer } from './helpers';
+import { TEST_PASSWORD, type TestServer } from './helpers';
 import { waitForStudy } from './work-fixtures';
 
 export type Agents = Record<Role, request.Agent> & { analyst2: request.Agent };
@@ -115,3 +115,14 @@ export const failureOf = async (p: PromiseLike<unknown>): Promise<string> => {
     return (err as Error).message;
   }
 };
+
+/** Submits version 1 with one finished study for the frame scope and has the reviewer sign it off. */
+export async function approvedStandard(as: Pick<Agents, 'analyst' | 'reviewer'>, w: WorkIds): Promise<{ standardId: string; submissionId: string }> {
+  const studyId = await finishedStudy(as.analyst, w, 1);
+  const sub = await as.analyst.post(`${w.lab}/reviews`).send({ recipe: { id: w.recipe, version: 1 }, studyIds: [studyId], scope: frameScope }).expect(201);
+  const ok = await as.reviewer
+    .post(`${w.lab}/reviews/${sub.body.id}/decision`)
+    .send({ decision: 'approved', password: TEST_PASSWORD, meaning: 'Approved as lab standard for single-mode frames' })
+    .expect(200);
+  return { standardId: ok.body.standardId as string, submissionId: sub.body.id as string };
+}

@@ -7,7 +7,7 @@
  */
 import Database from 'better-sqlite3';
 import type { DecisionRow } from '@/server/db/approval';
-import { signatureSha256 } from '@/server/reports/evidence';
+import { signatureSha256 } from '@/server/services/evidence';
 import { createWork, finishedStudy, frameScope, signInAll, type Agents, type WorkIds } from './approval-fixtures';
 import { startTestServer, TEST_PASSWORD, type TestServer } from './helpers';
 

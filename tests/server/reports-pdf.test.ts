@@ -107,7 +107,9 @@ describe("a study's report (JSON for the printable page)", () => {
     expect(study.scenarios.map((s: { seeds: string }) => s.seeds)).toEqual(['seeds 1–3 (3 seeds)', 'seeds 1000001–1000003 (3 seeds)']); // seed rule: base + position·1e6 + run
     expect(study.scenarios[0]).toMatchObject({ system: 'single degree of freedom; receptance in m/N; 1 mode(s): 50 Hz at 2 %', excitation: 'random, 0–200 Hz, 1 N RMS', errorSources: ['noise on the response channel: SNR 60 dB'], verdict: 'PASS' });
     expect(study.scenarios[0].criteria.map((x: { verdict: string }) => x.verdict)).toEqual(['PASS', 'PASS', 'PASS', 'PASS']);
-    expect(c.acceptanceCriteria).toContainEqual({ label: 'coherence, 5th percentile over seeds, worst line', limit: '≥ 0.5' });
+    expect(c.settings.recipe).toEqual({ id: w.recipe, version: 1, name: 'Hann 2048, H1, frames' });
+    expect(c.settings.rows).toContainEqual(expect.objectContaining({ group: 'criteria', label: 'Coherence, 5th percentile over seeds, worst line', value: '≥ 0.5', unit: '' }));
+    expect(c.settings.rows).toContainEqual(expect.objectContaining({ id: 'block-length', value: '2048', unit: 'samples' }));
     expect(c.signature).toMatchObject({ reviewer: { displayName: 'Dana Whitcombe' }, meaning: 'Approved as lab standard for single-mode frames, 30–80 Hz', comment: 'Read in full.' });
     expect(c.reproducibility).toContain(`on engine version ${ENGINE_VERSION}`);
     // The cautions of the product brief, word for word.
@@ -170,7 +172,7 @@ describe("a study's report as PDF", () => {
     json = (await as.auditor.get(`${w.lab}/reports/study/${studyId}`).expect(200)).body;
     const res = await pdfOf(as.auditor, `${w.lab}/reports/study/${studyId}.pdf`).expect(200);
     expect(res.headers['content-type']).toBe('application/pdf');
-    expect(res.headers['content-disposition']).toMatch(new RegExp(`^attachment; filename="?plumbline-study-report-${json.report.id}\\.pdf"?$`));
+    expect(res.headers['content-disposition']).toMatch(new RegExp(`^attachment; filename="?plumbline-study-report-${json.report.id}-revision-1\\.pdf"?$`));
     expect(res.headers['x-report-id']).toBe(json.report.id);
     pdf = res.body as Buffer;
     ({ text, pages } = await textOf(pdf));
@@ -235,15 +237,17 @@ describe("an approved standard's report", () => {
     for (const s of [res.body.report.id, 'The standard', standardId, 'matches the signed evidence', 'review due']) expect(text).toContain(s);
   }, 30_000);
 
-  it('finds stored evidence altered after signing, under a new report id', async () => {
+  it('finds stored evidence altered after signing, in a new revision of the same report', async () => {
     const before = (await as.auditor.get(`${w.lab}/standards/${standardId}/report`).expect(200)).body;
     const summary = JSON.parse((await t.db('studies').where({ id: studyId }).first('summary')).summary);
     summary.scenarios[0].judged.criteria[0].observed = 0.001;
     await t.db('studies').where({ id: studyId }).update({ summary: JSON.stringify(summary) });
     const after = (await as.auditor.get(`${w.lab}/standards/${standardId}/report`).expect(200)).body;
     expect(after.content.evidenceCheck.matchesSignature).toBe(false);
-    expect(after.report.id).not.toBe(before.report.id);
+    expect(after.report.id).toBe(before.report.id);
+    expect(after.report.revision).toBe(before.report.revision + 1);
     expect(after.report.sha256).not.toBe(before.report.sha256);
+    expect(after.report.changes).toContain('evidence check: matches the signature → does not match the signature');
     const { text } = await textOf((await pdfOf(as.auditor, `${w.lab}/standards/${standardId}/report.pdf`).expect(200)).body as Buffer);
     expect(text).toContain('DOES NOT match the signed evidence');
   }, 30_000);

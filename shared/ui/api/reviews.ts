@@ -1,6 +1,6 @@
 /** Review submissions of the current lab: the inbox, one submission, its evidence, the decision. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { decideSchema, evidenceSchema, reviewListSchema, submissionSchema, submitReviewSchema, type DecideRequest, type SubmitReviewRequest } from '@/shared/api/approval';
+import { decideSchema, evidenceSchema, recipeLifecycleSchema, reviewListSchema, submissionSchema, submitReviewSchema, type DecideRequest, type SubmitReviewRequest } from '@/shared/api/approval';
 import { api } from './client';
 import { labPath } from './labs';
 
@@ -12,6 +12,7 @@ export const reviewKeys = {
   list: (labId: string, filter: ReviewFilter = {}) => [...reviewKeys.lab(labId), 'list', filter] as const,
   detail: (labId: string, id: string) => [...reviewKeys.lab(labId), 'detail', id] as const,
   evidence: (labId: string, id: string) => [...reviewKeys.lab(labId), 'evidence', id] as const,
+  lifecycle: (labId: string, recipeId: string) => [...reviewKeys.lab(labId), 'lifecycle', recipeId] as const,
 };
 
 const reviewPath = (labId: string, id = '') => labPath(labId, `/reviews${id ? `/${encodeURIComponent(id)}` : ''}`);
@@ -70,5 +71,14 @@ export function useSubmitForReview(labId: string) {
       client.setQueryData(reviewKeys.detail(labId, submission.id), submission);
       void client.invalidateQueries({ queryKey: reviewKeys.lab(labId) });
     },
+  });
+}
+
+/** Every version of a recipe with its review state, newest submission and the standard it became. */
+export function useRecipeLifecycle(labId: string, recipeId: string) {
+  return useQuery({
+    queryKey: reviewKeys.lifecycle(labId, recipeId),
+    queryFn: ({ signal }) => api.get(labPath(labId, `/recipes/${encodeURIComponent(recipeId)}/lifecycle`), { schema: recipeLifecycleSchema, signal }),
+    enabled: labId !== '' && recipeId !== '',
   });
 }

@@ -1,6 +1,6 @@
 /** The current lab's register of approved standards: filter by scope, one standard, retire. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { retireSchema, reverifySchema, standardListSchema, standardSchema, type StandardListQuery } from '@/shared/api/approval';
+import { reverifySchema, standardListSchema, standardSchema, type StandardListQuery } from '@/shared/api/approval';
 import { api } from './client';
 import { labPath } from './labs';
 
@@ -43,10 +43,14 @@ export function useStandard(labId: string, id: string) {
 export function useRetireStandard(labId: string, id: string) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: (reason: string) => api.post(labPath(labId, `/standards/${encodeURIComponent(id)}/retire`), retireSchema.parse({ reason }), { schema: standardSchema }),
+    // The form checks the reason with retireSchema first; the server checks it again and names the field.
+    mutationFn: (reason: string) => api.post(labPath(labId, `/standards/${encodeURIComponent(id)}/retire`), { reason }, { schema: standardSchema }),
     onSuccess: (standard) => {
       client.setQueryData(standardKeys.detail(labId, id), standard);
       void client.invalidateQueries({ queryKey: standardKeys.lab(labId) });
+      // Reviews and reports show the standard's status too.
+      void client.invalidateQueries({ queryKey: ['reviews', labId] });
+      void client.invalidateQueries({ queryKey: ['reports', labId] });
     },
   });
 }

@@ -10,7 +10,7 @@ import { space } from '@/shared/ui/theme';
 import { PageHead } from '../kit/panel';
 import { WhatIfLink } from '../what-if/what-if-link';
 import { Column } from '../kit/two-pane';
-import { DueStandards, RecentResults, RunningStudies, WaitingReviews } from './home-sections';
+import { DueStandards, RecentResults, ReturnedToYou, RunningStudies, WaitingReviews } from './home-sections';
 
 function firstName(displayName: string) {
   return displayName.trim().split(/\s+/)[0] ?? displayName;
@@ -25,6 +25,7 @@ export function HomeScreen() {
   return (
     <Column title="Bench">
       <PageHead title="Bench" eyebrow={name ? `Welcome, ${name}` : 'Welcome'} intro={lab ? `${lab.labName}: your work in progress, and what is waiting for you.` : 'You are not a member of any lab yet.'} actions={<WhatIfLink />} />
+      {lab?.role === 'analyst' && session.status === 'signed-in' ? <ReturnedToYou labId={labId} userId={session.me.user.id} /> : null}
       <View style={[styles.grid, wide && styles.gridWide]}>
         <View style={[styles.col, wide && styles.colWide]}>
           <RunningStudies labId={labId} canStart={lab?.role === 'analyst'} />

@@ -1,5 +1,6 @@
 /** The four sections of the home screen, each a small query with its own states. */
 import { StyleSheet, View } from 'react-native';
+import type { Submission } from '@/shared/api/approval';
 import type { Role } from '@/shared/api/auth';
 import { useReviews } from '@/shared/ui/api/reviews';
 import { useStandards } from '@/shared/ui/api/standards';
@@ -59,6 +60,29 @@ export function WaitingReviews({ labId, role }: { labId: string; role: Role | nu
           </View>
         )}
       </QueryView>
+    </Panel>
+  );
+}
+
+/**
+ * The analyst's own submissions a reviewer returned and that are not yet put forward again, at the
+ * top of the Bench; the panel is left out while there are none.
+ */
+export function ReturnedToYou({ labId, userId }: { labId: string; userId: string }) {
+  const returned = useReviews(labId, { status: 'returned', limit: 50 });
+  const mine = (returned.data?.items ?? []).filter((s: Submission) => s.submittedBy.id === userId && !s.resubmittedAs);
+  if (mine.length === 0) return null;
+  return (
+    <Panel title="Returned to you" testID="home-returned">
+      <AppText variant="body">A reviewer sent these back. Read the reason, then open one to submit it again.</AppText>
+      <View style={styles.list}>
+        {mine.map((s) => (
+          <View key={s.id} style={styles.text}>
+            <SubmissionRow submission={s} />
+            {s.decision?.reason ? <AppText variant="small">{`Reason: ${s.decision.reason}`}</AppText> : null}
+          </View>
+        ))}
+      </View>
     </Panel>
   );
 }

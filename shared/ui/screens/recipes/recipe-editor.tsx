@@ -3,6 +3,7 @@
  * live, acceptance criteria, the engine's advice for a scenario, saving as a new version, and the
  * version history with the differences between any two versions field by field.
  */
+import { useLocalSearchParams } from 'expo-router';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { parseRecipe, type Recipe } from '@/shared/engine/recipe';
@@ -14,6 +15,7 @@ import { TextInputField } from '@/shared/ui/screens/systems/text-input-field';
 import { space } from '@/shared/ui/theme';
 import { RecipeAdvice } from './recipe-advice';
 import { RecipeFields } from './recipe-fields';
+import { RecipeReviewState } from './recipe-review-state';
 import { recipeFormSchema, startingRecipe, type RecipeFormValues } from './recipe-form-values';
 import { WindowFigures } from './window-figures';
 import { useVersionedSave } from '@/shared/ui/screens/systems/use-versioned-save';
@@ -21,9 +23,12 @@ import { VersionedEditorFooter, VersionedEditorLoader, type EditorProps } from '
 
 export function RecipeEditor({ labId, id, canWrite }: EditorProps) {
   const latest = recipesApi.useLatest(labId, id === 'new' ? '' : id);
+  // ?version=N: a link from a review, a standard or a report to the version it names.
+  const asked = Number(useLocalSearchParams<{ version?: string }>().version);
+  const version = Number.isInteger(asked) && asked > 0 ? asked : undefined;
   return (
     <VersionedEditorLoader id={id} noun="recipe" query={latest}>
-      {(record) => <RecipeForm key={record?.id ?? 'new'} labId={labId} record={record} canWrite={canWrite} />}
+      {(record) => <RecipeForm key={record?.id ?? 'new'} labId={labId} record={record} canWrite={canWrite} version={version} />}
     </VersionedEditorLoader>
   );
 }
@@ -34,7 +39,7 @@ function valuesOf(record: RecipeRecord | null): RecipeFormValues {
   return { note: '', definition: record ? record.definition : startingRecipe() };
 }
 
-function RecipeForm({ labId, record, canWrite }: { labId: string; record: RecipeRecord | null; canWrite: boolean }) {
+function RecipeForm({ labId, record, canWrite, version }: { labId: string; record: RecipeRecord | null; canWrite: boolean; version?: number }) {
   const form = useForm<RecipeFormValues>({ resolver, defaultValues: valuesOf(record) });
   const { control, setValue, getValues, handleSubmit, reset } = form;
   const saver = useVersionedSave(recipesApi, labId, record, '/recipes', (saved) => reset(valuesOf(saved)));
@@ -48,6 +53,7 @@ function RecipeForm({ labId, record, canWrite }: { labId: string; record: Recipe
     <FormProvider {...form}>
       <View style={styles.editor} testID="recipe-editor">
         <EditorHead title={record ? record.name : 'New recipe'} eyebrow={record ? `Recipe · version ${record.latestVersion}` : 'Recipe · not saved yet'} />
+        {record ? <RecipeReviewState labId={labId} recipeId={record.id} version={version} /> : null}
         <Panel title="About">
           <TextInputField control={control} name="definition.name" label="Name" placeholder="e.g. Frame survey, Hann 50 %" />
           <TextInputField control={control} name="definition.description" label="Description" multiline />

@@ -1,6 +1,6 @@
 /** The validation report as a printable page (print CSS on the web), with the PDF beside it. */
 import { StyleSheet, View } from 'react-native';
-import { auditTrailLine, type ReportContent, type ReportTrail } from '@/shared/api/approval';
+import { auditTrailLine, type ReportContent, type ReportRecord, type ReportTrail } from '@/shared/api/approval';
 import { reportPaths, useReport, type ReportKind } from '@/shared/ui/api/reports';
 import { AppText, Button, Caution, StatusBadge } from '@/shared/ui/components';
 import { useLabId } from '@/shared/ui/lab-context';
@@ -9,6 +9,7 @@ import { FactRow, formatDateTime } from '../kit/figure';
 import { Panel, TextLink } from '../kit/panel';
 import { QueryView } from '../kit/query-view';
 import { Column } from '../kit/two-pane';
+import { SettingsSummaryPanel } from '../kit/settings-summary';
 import { ScopeFacts } from '../reviews/scope-facts';
 import { printPage, usePrintStyle } from './print-style';
 import { ReportScenario } from './report-scenario';
@@ -25,28 +26,36 @@ export function ReportScreen({ kind, targetId }: { kind: ReportKind; targetId: s
         <TextLink href={paths.pdf} external testID="report-pdf">Download the PDF</TextLink>
         <TextLink href={kind === 'study' ? `/studies/${targetId}` : `/standards/${targetId}`}>{kind === 'study' ? 'Back to the study' : 'Back to the standard'}</TextLink>
       </View>
-      <QueryView query={report} loadingLabel="Loading the report…">{(r) => <ReportBody content={r.content} sha256={r.report.sha256} createdAt={r.report.createdAt} trail={r.trail} />}</QueryView>
+      <QueryView query={report} loadingLabel="Loading the report…">{(r) => <ReportBody content={r.content} record={r.report} trail={r.trail} />}</QueryView>
     </Column>
   );
 }
 
-function ReportBody({ content: c, sha256, createdAt, trail }: { content: ReportContent; sha256: string; createdAt: number; trail: ReportTrail | null }) {
+function ReportBody({ content: c, record, trail }: { content: ReportContent; record: ReportRecord; trail: ReportTrail | null }) {
+  const ended = c.standard && c.standard.status !== 'active' ? c.standard.status : null;
   return (
     <View style={styles.sheet} testID="report-sheet" {...({ dataSet: { print: 'sheet' } } as object)}>
       <View style={styles.head}>
         <AppText variant="label" tone="muted">{`${c.lab.name} · validation report`}</AppText>
         <AppText variant="title" role="heading" aria-level={1} testID="screen-title">{c.title}</AppText>
-        <AppText variant="label" tone="muted" selectable>{`Report sha256 ${sha256} · issued ${formatDateTime(createdAt)} · engine ${c.engineVersion}`}</AppText>
+        {ended ? <StatusBadge tone="neutral" label={ended === 'retired' ? 'Retired standard' : 'Superseded standard'} /> : null}
+        <AppText variant="label" tone="muted" selectable testID="report-identity">{`Report ${record.id} · revision ${record.revision} · sha256 ${record.sha256} · issued ${formatDateTime(record.createdAt)} · engine ${c.engineVersion}`}</AppText>
         <AppText variant="label" tone="muted" selectable testID="report-trail">{auditTrailLine(trail)}</AppText>
+        {record.changes.length ? <AppText variant="small" testID="report-changes">{`Changed in revision ${record.revision}: ${record.changes.join('; ')}.`}</AppText> : null}
       </View>
+      {ended ? (
+        <Caution title={ended === 'retired' ? 'This standard is retired' : 'This standard is superseded'} testID="report-ended">
+          {ended === 'retired' ? 'The lab no longer cites it as current. The report stays as the record of what was approved.' : 'A newer version of the recipe is the lab\'s standard now. The report stays as the record of what was approved.'}
+        </Caution>
+      ) : null}
       {c.purpose ? <AppText variant="body">{c.purpose}</AppText> : null}
       {c.scope ? <Panel title="Scope"><ScopeFacts scope={c.scope} /></Panel> : null}
       <Panel title="Recipe">
         <FactRow label="Recipe" text={`${c.recipe.name} v${c.recipe.version}`} />
         <FactRow label="Author" text={c.recipe.author.displayName} />
         <FactRow label="State" text={c.recipe.state.replace('_', ' ')} />
-        {c.acceptanceCriteria.map((a) => <FactRow key={a.label} label={a.label} text={a.limit} />)}
       </Panel>
+      <SettingsSummaryPanel summary={c.settings} />
       {c.studies.map((study) => (
         <Panel key={study.id} title={study.name} aside={<StatusBadge tone={study.pass ? 'pass' : study.pass === false ? 'fail' : 'neutral'} label={study.pass ? 'PASS' : study.pass === false ? 'FAIL' : study.status} />}>
           <AppText variant="small" tone="muted">{`Run by ${study.runBy.displayName} · ${formatDateTime(study.startedAt)} – ${formatDateTime(study.finishedAt)} · ${study.seedsPerScenario} seeds per scenario, base seed ${study.baseSeed} · ${study.seedRule} · engine ${study.engineVersion}`}</AppText>

@@ -3,12 +3,14 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { Evidence, Submission } from '@/shared/api/approval';
 import { useEvidence, useSubmission } from '@/shared/ui/api/reviews';
+import { useSession } from '@/shared/ui/api/use-session';
 import { AppText, Button, Caution, StatusBadge } from '@/shared/ui/components';
 import { useLabRole } from '@/shared/ui/lab-context';
 import { space } from '@/shared/ui/theme';
 import { formatDateTime } from '../kit/figure';
 import { Panel, TextLink } from '../kit/panel';
 import { QueryView } from '../kit/query-view';
+import { SettingsSummaryPanel } from '../kit/settings-summary';
 import { Verdict } from '../kit/verdict';
 import { DecisionRecord } from './decision-record';
 import { EvidenceStudies } from './evidence-studies';
@@ -30,6 +32,21 @@ export function EvidenceScreenBody({ labId, submissionId }: { labId: string; sub
         </View>
       )}
     </QueryView>
+  );
+}
+
+/** The submitter of a returned submission may put it forward again (once: then it links onward). */
+function ResubmitAction({ submission: s }: { submission: Submission }) {
+  const session = useSession();
+  const mine = session.status === 'signed-in' && session.me.user.id === s.submittedBy.id;
+  if (s.status !== 'returned') return null;
+  if (s.resubmittedAs) return <TextLink href={`/reviews/${s.resubmittedAs}`} testID="resubmitted-link">It was submitted again: open the new submission</TextLink>;
+  if (!mine) return null;
+  return (
+    <View style={styles.resubmit} testID="resubmit-panel">
+      <AppText variant="body">Returned to you. Answer the reason, then submit this version or a newer one again.</AppText>
+      <TextLink href={`/reviews/submit?from=${encodeURIComponent(s.id)}`} testID="resubmit">Resubmit for review</TextLink>
+    </View>
   );
 }
 
@@ -59,7 +76,8 @@ function SubmissionHead({ labId, submission: s }: { labId: string; submission: S
           <View style={styles.list}>{s.blockedForYou.map((why) => <AppText key={why} variant="body">{why}</AppText>)}</View>
         </Caution>
       ) : null}
-      {s.decision ? <DecisionRecord decision={s.decision} standardId={s.standardId} /> : null}
+      {s.decision ? <DecisionRecord decision={s.decision} standardId={s.standardId} standardStatus={s.standardStatus} /> : null}
+      <ResubmitAction submission={s} />
       <Panel title="Scope">
         <ScopeFacts scope={s.scope} />
         {s.purpose ? <AppText variant="body">{s.purpose}</AppText> : null}
@@ -83,13 +101,18 @@ function SubmissionHead({ labId, submission: s }: { labId: string; submission: S
         </Panel>
       ) : null}
       <SignOffDialog labId={labId} submission={s} decision={decision} onClose={() => setDecision(null)} />
-      {s.standardId ? <TextLink href={`/standards/${s.standardId}`}>Open the standard it became</TextLink> : null}
+      {s.standardId ? <TextLink href={`/standards/${s.standardId}`}>{s.standardStatus === 'retired' ? 'Open the standard it became (retired)' : 'Open the standard it became'}</TextLink> : null}
     </>
   );
 }
 
 function EvidenceBody({ evidence }: { evidence: Evidence }) {
-  return <EvidenceStudies evidence={evidence} />;
+  return (
+    <View style={styles.body}>
+      {evidence.settings ? <SettingsSummaryPanel summary={evidence.settings} title={evidence.submission.status === 'approved' ? 'Settings signed off' : 'Settings under review'} /> : null}
+      <EvidenceStudies evidence={evidence} />
+    </View>
+  );
 }
 
 const styles = StyleSheet.create({
@@ -100,4 +123,5 @@ const styles = StyleSheet.create({
   list: { gap: space.sm },
   check: { flexDirection: 'row', alignItems: 'flex-start', gap: space.sm },
   flex: { flex: 1 },
+  resubmit: { gap: space.sm },
 });

@@ -1,6 +1,6 @@
 /** Pieces of the submit-for-review form: a labelled list of checkboxes and the scope form values. */
 import { Pressable, StyleSheet, View } from 'react-native';
-import { EXCITATION_KINDS, type SubmitReviewRequest } from '@/shared/api/approval';
+import { EXCITATION_KINDS, type Submission, type SubmitReviewRequest } from '@/shared/api/approval';
 import { AppText } from '@/shared/ui/components';
 import { colors, radius, space, stroke } from '@/shared/ui/theme';
 import { FieldError } from '../kit/choice-field';
@@ -34,6 +34,28 @@ export type SubmitValues = {
 export const emptySubmitValues: SubmitValues = {
   recipeId: '', version: '', studyIds: [], structureType: '', lowHz: '', highHz: '', dampingMin: '', dampingMax: '', excitations: [], purpose: '', justification: '',
 };
+
+/**
+ * The form filled from a returned submission: its recipe at the newest version, its scope,
+ * purpose and justification; its studies only when that version is still the one submitted
+ * (evidence must be of exactly the version put forward).
+ */
+export function valuesFrom(s: Submission): SubmitValues {
+  const sameVersion = s.recipe.latestVersion === s.recipe.version;
+  return {
+    recipeId: s.recipe.id,
+    version: String(s.recipe.latestVersion),
+    studyIds: sameVersion ? s.studies.map((x) => x.id) : [],
+    structureType: s.scope.structureType,
+    lowHz: String(s.scope.band.lowHz),
+    highHz: String(s.scope.band.highHz),
+    dampingMin: String(s.scope.dampingPercent.min),
+    dampingMax: String(s.scope.dampingPercent.max),
+    excitations: [...s.scope.excitations],
+    purpose: s.purpose,
+    justification: s.justification ?? '',
+  };
+}
 
 /** Empty text becomes NaN so the schema says the number is missing rather than taking 0. */
 const numberOf = (text: string) => (text.trim() === '' ? Number.NaN : Number(text.trim()));

@@ -5,11 +5,11 @@
  * another version…) are shown as it words them.
  */
 import { useRouter } from 'expo-router';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { EXCITATION_KINDS, submitReviewSchema } from '@/shared/api/approval';
 import { errorText } from '@/shared/ui/api/client';
-import { useSubmitForReview } from '@/shared/ui/api/reviews';
+import { useSubmission, useSubmitForReview } from '@/shared/ui/api/reviews';
 import { recipesApi } from '@/shared/ui/api/recipes';
 import { useStudies } from '@/shared/ui/api/studies';
 import { AppText, Button, Screen, TextField } from '@/shared/ui/components';
@@ -17,13 +17,13 @@ import { useLabId, useLabRole } from '@/shared/ui/lab-context';
 import { colors, radius, space, stroke } from '@/shared/ui/theme';
 import { SelectField } from '../kit/choice-field';
 import { Panel, TextLink } from '../kit/panel';
-import { CheckList, emptySubmitValues, excitationWords, fieldOf, toRequest, type Excitation, type SubmitValues } from './submit-fields';
+import { CheckList, emptySubmitValues, excitationWords, fieldOf, toRequest, valuesFrom, type Excitation, type SubmitValues } from './submit-fields';
 
 type Errors = Partial<Record<keyof SubmitValues | 'form', string>>;
 
 const toggle = <T extends string>(list: readonly T[], value: T): T[] => (list.includes(value) ? list.filter((v) => v !== value) : [...list, value]);
 
-export function SubmitReviewScreen() {
+export function SubmitReviewScreen({ from }: { from?: string } = {}) {
   const labId = useLabId();
   const role = useLabRole();
   const router = useRouter();
@@ -32,6 +32,12 @@ export function SubmitReviewScreen() {
   const submit = useSubmitForReview(labId);
   const [values, setValues] = useState<SubmitValues>(emptySubmitValues);
   const [errors, setErrors] = useState<Errors>({});
+  const returned = useSubmission(labId, from ?? '');
+  const earlier = returned.data?.status === 'returned' ? returned.data : null;
+  // A resubmission starts from the returned submission, once it has loaded.
+  useEffect(() => {
+    if (earlier) setValues(valuesFrom(earlier));
+  }, [earlier]);
 
   const set = (patch: Partial<SubmitValues>) => {
     setValues((v) => ({ ...v, ...patch }));
@@ -65,6 +71,17 @@ export function SubmitReviewScreen() {
   return (
     <Screen title="Submit a recipe for review" eyebrow="Reviews" intro="Put one recipe version forward with the finished studies that prove it, for the kind of structure it is meant for. A reviewer other than you signs it off.">
       <TextLink href="/reviews" testID="submit-back">All reviews</TextLink>
+      {earlier ? (
+        <Panel title="Submitting again" testID="resubmit-source">
+          <AppText variant="body">{`${earlier.recipe.name} v${earlier.recipe.version} was returned by ${earlier.decision?.reviewer.displayName ?? 'the reviewer'}.`}</AppText>
+          {earlier.decision?.reason ? <AppText variant="body">{`Reason: ${earlier.decision.reason}`}</AppText> : null}
+          <AppText variant="small" tone="muted">
+            {earlier.recipe.latestVersion > earlier.recipe.version
+              ? `The form puts forward the newest version, v${earlier.recipe.latestVersion}: choose finished studies of that version as evidence.`
+              : 'The form holds what was submitted; change what the reason asks for, or submit a newer version.'}
+          </AppText>
+        </Panel>
+      ) : null}
       <Panel title="Recipe and evidence">
         <SelectField label="Recipe" placeholder={recipes.isPending ? 'Loading recipes…' : 'Choose a recipe'} options={(recipes.data?.items ?? []).map((r) => ({ value: r.id, label: r.name }))} value={values.recipeId || undefined} onChange={(id) => set({ recipeId: id, version: '', studyIds: [] })} error={errors.recipeId} testID="submit-recipe" />
         <SelectField label="Version" placeholder={recipe ? 'Choose a version' : 'Choose a recipe first'} options={versionOptions} value={values.version || undefined} onChange={(v) => set({ version: v, studyIds: [] })} error={errors.version} testID="submit-version" />

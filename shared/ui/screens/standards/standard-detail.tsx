@@ -1,18 +1,20 @@
 /** One standard: its recipe version, scope, dates, signature, evidence, report and retirement. */
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import type { Standard } from '@/shared/api/approval';
+import { retireSchema, type Standard } from '@/shared/api/approval';
 import { reportPaths } from '@/shared/ui/api/reports';
 import { useRetireStandard, useStandard } from '@/shared/ui/api/standards';
-import { AppText, Button, StatusBadge, TextField } from '@/shared/ui/components';
+import { AppText, Button, Caution, StatusBadge, TextField } from '@/shared/ui/components';
 import { useLabRole } from '@/shared/ui/lab-context';
 import { space } from '@/shared/ui/theme';
 import { ConfirmDialog } from '../kit/confirm-dialog';
 import { FactRow, formatDate, formatDateTime } from '../kit/figure';
 import { Panel, TextLink } from '../kit/panel';
 import { QueryView } from '../kit/query-view';
+import { SettingsSummaryPanel } from '../kit/settings-summary';
 import { ScopeFacts } from '../reviews/scope-facts';
 import { ReverifyPanel } from './reverify-panel';
+import { retireFieldError } from './retire-reason';
 
 export function StandardBadge({ standard }: { standard: Pick<Standard, 'status' | 'reviewDueAt'> }) {
   if (standard.status === 'retired') return <StatusBadge tone="neutral" label="Retired" />;
@@ -30,7 +32,14 @@ function StandardBody({ labId, standard: s }: { labId: string; standard: Standar
   const role = useLabRole();
   const [asking, setAsking] = useState(false);
   const [reason, setReason] = useState('');
+  const [reasonError, setReasonError] = useState<string | undefined>();
   const retire = useRetireStandard(labId, s.id);
+  const confirmRetire = () => {
+    const parsed = retireSchema.safeParse({ reason });
+    if (!parsed.success) return setReasonError(parsed.error.issues[0]?.message);
+    retire.mutate(parsed.data.reason, { onSuccess: () => setAsking(false) });
+  };
+  const shownReasonError = reasonError ?? retireFieldError(retire.error);
   const paths = reportPaths(labId, 'standard', s.id);
   return (
     <View style={styles.body} testID="standard-detail">
@@ -39,14 +48,19 @@ function StandardBody({ labId, standard: s }: { labId: string; standard: Standar
         <AppText variant="title" role="heading" aria-level={1} testID="screen-title">{`${s.recipe.name} v${s.recipe.version}`}</AppText>
         <StandardBadge standard={s} />
       </View>
+      {s.status !== 'active' ? (
+        <Caution title={s.status === 'retired' ? 'Retired: no longer a standard of the lab' : 'Superseded by a newer version'} testID="standard-ended">
+          {`${s.status === 'retired' ? 'Retired' : 'Superseded'} ${formatDateTime(s.ended?.at)}${s.ended?.by ? ` by ${s.ended.by.displayName}` : ''}. ${s.ended?.reason ? `Reason: ${s.ended.reason}. ` : ''}Its record, evidence and signature stay for the audit trail; the lab may not cite it as current.`}
+        </Caution>
+      ) : null}
       <Panel title="Scope"><ScopeFacts scope={s.scope} />{s.purpose ? <AppText variant="body">{s.purpose}</AppText> : null}</Panel>
       <Panel title="Dates and versions">
         <FactRow label="Effective from" text={formatDate(s.effectiveAt)} />
         <FactRow label="Review falls due" text={formatDate(s.reviewDueAt)} />
         {s.supersedes ? <FactRow label="Supersedes" text={`recipe v${s.supersedes.recipeVersion}`} /> : null}
         {s.supersededBy ? <FactRow label="Superseded by" text={`recipe v${s.supersededBy.recipeVersion}`} /> : null}
-        {s.ended ? <AppText variant="body">{`Ended ${formatDateTime(s.ended.at)}${s.ended.by ? ` by ${s.ended.by.displayName}` : ''}: ${s.ended.reason}`}</AppText> : null}
       </Panel>
+      {s.settings ? <SettingsSummaryPanel summary={s.settings} title="Settings signed off" /> : null}
       <Panel title="Signature">
         <FactRow label="Reviewer" text={s.signature.reviewer.displayName} />
         <FactRow label="Signed" text={formatDateTime(s.signature.signedAt)} />
@@ -71,11 +85,23 @@ function StandardBody({ labId, standard: s }: { labId: string; standard: Standar
         confirmLabel="Retire it"
         busy={retire.isPending}
         busyLabel="Retiring…"
-        error={retire.error}
+        error={shownReasonError ? null : retire.error}
         onCancel={() => setAsking(false)}
-        onConfirm={() => retire.mutate(reason, { onSuccess: () => setAsking(false) })}
+        onConfirm={confirmRetire}
       >
-        <TextField label="Reason" hint="At least 10 characters; it is recorded in the audit trail." value={reason} onChangeText={setReason} multiline />
+        <TextField
+          label="Reason"
+          hint="At least 10 characters; it is recorded in the audit trail."
+          value={reason}
+          onChangeText={(t) => {
+            setReason(t);
+            setReasonError(undefined);
+            if (retire.isError) retire.reset();
+          }}
+          error={shownReasonError}
+          multiline
+          testID="retire-reason"
+        />
       </ConfirmDialog>
     </View>
   );
