@@ -9,6 +9,7 @@ import { z } from 'zod';
 import { recipeSchema } from '@/shared/engine/recipe';
 import { scenarioSchema } from '@/shared/engine/scenario';
 import { systemSpecSchema } from '@/shared/engine/systems/schema';
+import { preflightFindingSchema } from './preflight';
 
 const millis = z.number().int();
 const id = z.string().min(1).max(100);
@@ -157,13 +158,15 @@ export const studySchema = z.object({
   /** All criteria of every scenario passed; null until the study has finished. */
   pass: z.boolean().nullable(),
   error: z.string().nullable(),
+  /** The pre-flight warnings of the recipe on each scenario, as stored when the study started. */
+  warnings: z.array(preflightFindingSchema),
   createdBy: person,
   createdAt: millis,
   startedAt: millis.nullable(),
   finishedAt: millis.nullable(),
 });
 export type Study = z.infer<typeof studySchema>;
-export const studyListSchema = workPageOf(studySchema.omit({ scenarios: true }));
+export const studyListSchema = workPageOf(studySchema.omit({ scenarios: true, warnings: true }));
 export type StudyList = z.infer<typeof studyListSchema>;
 
 export const runSchema = z.object({

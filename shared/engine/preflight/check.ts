@@ -51,6 +51,6 @@ export function preflight(recipeInput: Recipe, scenarioInput: Scenario | Scenari
 }
 
 /** One line per finding, for logs, the CLI and stored messages: the sentence and its fix. */
-export function findingText(f: Finding): string {
+export function findingText(f: Pick<Finding, 'message' | 'fix'>): string {
   return `${f.message} ${f.fix}`;
 }
