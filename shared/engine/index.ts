@@ -40,3 +40,4 @@ export * from './preflight/findings';
 export * from './preflight/check';
 export { MIN_EFFECTIVE_AVERAGES, blocksForEffectiveAverages } from './preflight/warnings';
 export { stationaryBlocks } from './preflight/figures';
+export * from './delay-bias';
