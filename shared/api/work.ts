@@ -159,7 +159,7 @@ export const studySchema = z.object({
   pass: z.boolean().nullable(),
   error: z.string().nullable(),
   /** The pre-flight warnings of the recipe on each scenario, as stored when the study started. */
-  warnings: z.array(preflightFindingSchema),
+  warnings: z.array(preflightFindingSchema).default([]),
   createdBy: person,
   createdAt: millis,
   startedAt: millis.nullable(),
