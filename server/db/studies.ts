@@ -33,6 +33,8 @@ export interface StudyRow {
   started_at: number | null;
   finished_at: number | null;
   cancel_requested_at: number | null;
+  /** JSON array of the pre-flight warnings stored at start (null before the check existed). */
+  preflight_warnings: string | null;
 }
 
 export interface StudyScenarioRow {
@@ -117,6 +119,8 @@ export interface NewStudy {
   engineVersion: string;
   createdBy: string;
   at: number;
+  /** Pre-flight warnings to store with the study. */
+  preflightWarnings?: unknown[];
 }
 
 export async function insertStudy(trx: Db, s: NewStudy): Promise<string> {
@@ -134,6 +138,7 @@ export async function insertStudy(trx: Db, s: NewStudy): Promise<string> {
     engine_version: s.engineVersion,
     created_by: s.createdBy,
     created_at: s.at,
+    preflight_warnings: JSON.stringify(s.preflightWarnings ?? []),
   });
   await trx('study_scenarios').insert(
     s.scenarios.map((sc, position) => ({ study_id: id, position, scenario_id: sc.id, scenario_version: sc.version })),

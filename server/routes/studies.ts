@@ -13,12 +13,14 @@ import {
   studySchema,
   type StudyEvent,
 } from '@/shared/api/work';
+import { studyPreflightRequestSchema, studyPreflightSchema } from '@/shared/api/preflight';
 import type { AppDeps } from '../deps';
 import { labRoute, type LabRequest } from '../auth/permissions';
 import { AppError } from '../errors';
 import type { StudyQueue } from '../jobs/scheduler';
 import { cancelStudy, getStudy, listLabStudies, listStudyRuns, startStudy } from '../services/studies';
 import { getStudyResults } from '../services/study-results';
+import { checkStudyPair } from '../services/study-preflight';
 import { parseBody } from './parse';
 
 const idParam = z.object({ id: z.string() });
@@ -38,6 +40,10 @@ export function studyRoutes(deps: AppDeps): Router {
   labRoute(r, deps.db, { method: 'post', path: base, action: 'studies.start', summary: 'Start a study; it runs in the background', body: startStudySchema, response: studySchema, status: 202 }, async (req, res) => {
     const body = parseBody(startStudySchema, req.body);
     res.status(202).json(await startStudy(deps.db, queueOf(deps), req.lab.id, req.user.id, body));
+  });
+  labRoute(r, deps.db, { method: 'post', path: `${base}/preflight`, action: 'studies.read', summary: 'Check a recipe against scenarios before a study starts: refusals and warnings', body: studyPreflightRequestSchema, response: studyPreflightSchema }, async (req, res) => {
+    const { refusals, warnings } = await checkStudyPair(deps.db, req.lab.id, parseBody(studyPreflightRequestSchema, req.body));
+    res.json({ refusals, warnings });
   });
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id`, action: 'studies.read', summary: 'A study with its progress', response: studySchema }, async (req, res) => {
     res.json(await getStudy(deps.db, deps.studyQueue, req.lab.id, parseBody(idParam, req.params).id));

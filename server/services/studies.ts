@@ -19,11 +19,11 @@ import {
   type StudyRow,
   type StudyScenarioRow,
 } from '../db/studies';
-import { findResource, findVersion, type VersionedKind } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import type { StudyQueue } from '../jobs/scheduler';
 import { STUDY_JOB } from '../jobs/scheduler';
 import { recordAudit } from './audit';
+import { checkStudyPair, refuseIfCannotRun } from './study-preflight';
 
 type StartInput = z.output<typeof startStudySchema>;
 
@@ -56,19 +56,12 @@ export function studyView(row: StudyRow, scenarios: StudyScenarioRow[], live?: S
     engineVersion: row.engine_version,
     pass: summary?.pass ?? null,
     error: row.error,
+    warnings: row.preflight_warnings ? (JSON.parse(row.preflight_warnings) as Study['warnings']) : [],
     createdBy: { id: row.created_by, displayName: row.created_by_name },
     createdAt: Number(row.created_at),
     startedAt: row.started_at === null ? null : Number(row.started_at),
     finishedAt: row.finished_at === null ? null : Number(row.finished_at),
   };
-}
-
-async function versionOf(db: Db, kind: VersionedKind, noun: string, labId: string, ref: { id: string; version?: number }) {
-  const head = await findResource(db, kind, labId, ref.id);
-  if (!head) throw notFound(`${noun} ${ref.id}`);
-  const version = ref.version ?? head.latest_version;
-  if (!(await findVersion(db, kind, ref.id, version))) throw notFound(`Version ${version} of ${noun.toLowerCase()} ${ref.id}`);
-  return version;
 }
 
 export async function getStudy(db: Db, queue: StudyQueue | undefined, labId: string, id: string): Promise<Study> {
@@ -79,9 +72,11 @@ export async function getStudy(db: Db, queue: StudyQueue | undefined, labId: str
 
 export async function startStudy(db: Db, queue: StudyQueue, labId: string, userId: string, input: StartInput | StartStudyRequest): Promise<Study> {
   const body = startStudySchema.parse(input);
-  const recipeVersion = await versionOf(db, 'recipes', 'Recipe', labId, body.recipe);
-  const scenarios: { id: string; version: number }[] = [];
-  for (const s of body.scenarios) scenarios.push({ id: s.id, version: await versionOf(db, 'scenarios', 'Scenario', labId, s) });
+  // Checked before anything is stored: a pair that cannot run leaves no study, audit entry or mail.
+  const pair = await checkStudyPair(db, labId, body);
+  refuseIfCannotRun(pair);
+  const recipeVersion = pair.recipe.version;
+  const scenarios = pair.scenarios.map((s) => ({ id: s.id, version: s.version }));
   const id = await db.transaction(async (trx) => {
     const studyId = await insertStudy(trx, {
       labId,
@@ -94,6 +89,7 @@ export async function startStudy(db: Db, queue: StudyQueue, labId: string, userI
       engineVersion: ENGINE_VERSION,
       createdBy: userId,
       at: Date.now(),
+      preflightWarnings: pair.warnings,
     });
     await enqueueJob(trx, STUDY_JOB, { studyId });
     await recordAudit(trx, {
@@ -113,7 +109,7 @@ export async function startStudy(db: Db, queue: StudyQueue, labId: string, userI
 export async function listLabStudies(db: Db, labId: string, query: StudyListQuery) {
   const { rows, total } = await listStudies(db, labId, query);
   const items = rows.map((r) => {
-    const { scenarios: _omit, ...rest } = studyView(r, []);
+    const { scenarios: _omit, warnings: _stored, ...rest } = studyView(r, []);
     return rest;
   });
   return { items, total, limit: query.limit, offset: query.offset };

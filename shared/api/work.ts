@@ -10,6 +10,7 @@ import { id, millis, pageOf, paging, person } from './common';
 import { recipeSchema } from '@/shared/engine/recipe';
 import { scenarioSchema } from '@/shared/engine/scenario';
 import { systemSpecSchema } from '@/shared/engine/systems/schema';
+import { preflightFindingSchema } from './preflight';
 
 /** List query of a lab list: paging, one whitelisted sort key, order, and a name filter. */
 export const listQueryOf = <S extends readonly [string, ...string[]]>(sorts: S, defaultSort: S[number], defaultOrder: 'asc' | 'desc') =>
@@ -150,13 +151,15 @@ export const studySchema = z.object({
   /** All criteria of every scenario passed; null until the study has finished. */
   pass: z.boolean().nullable(),
   error: z.string().nullable(),
+  /** The pre-flight warnings of the recipe on each scenario, as stored when the study started. */
+  warnings: z.array(preflightFindingSchema).default([]),
   createdBy: person,
   createdAt: millis,
   startedAt: millis.nullable(),
   finishedAt: millis.nullable(),
 });
 export type Study = z.infer<typeof studySchema>;
-export const studyListSchema = pageOf(studySchema.omit({ scenarios: true }));
+export const studyListSchema = pageOf(studySchema.omit({ scenarios: true, warnings: true }));
 export type StudyList = z.infer<typeof studyListSchema>;
 
 export const runSchema = z.object({

@@ -19,7 +19,9 @@
  *   window with the envelope reaching 1 % at the block end, adding ζ_add = 1/(ω_n τ) (common
  *   practice, quoted from memory); burst random needs the response to decay within the block.
  * - estimator: H1 with noise on the response only, H2 with noise on the force only, Hv with both
- *   (common practice).
+ *   (common practice); a channel delay costs magnitude, coherence and phase (delay-bias.ts);
+ * - lines without force are promised nothing; the draft goes through the same pre-flight check as
+ *   a study (preflight/check.ts), whose findings join the warnings.
  */
 import type { ModeFacts, WindowName } from './types';
 import { EngineInputError, requireFinite } from './errors';
@@ -29,7 +31,10 @@ import { NORMAL_95 } from './random-errors';
 import { resolveScenario, type Scenario, type ScenarioInput } from './scenario';
 import { effectiveAverages } from './welch';
 import { windowSamples } from './windows';
-import { expectedCoherence } from './scores/expected-coherence';
+import { expectedCoherence, forceSpectrumShape } from './scores/expected-coherence';
+import { delayBias } from './delay-bias';
+import { findingText, preflight } from './preflight/check';
+import type { Preflight } from './preflight/findings';
 import { leakageCoherence, powerKernel, resolutionBias, type ResolutionBias } from './scores/resolution-bias';
 
 export interface AdviceOptions {
@@ -45,6 +50,11 @@ export interface AdviceOptions {
   maxAverages?: number;
   /** Lines with a lower expected coherence do not size the averages (default 0.5). */
   minSizingCoherence?: number;
+  /**
+   * Resonance-frequency tolerance, % of f_n: the line spacing is then also kept no coarser than
+   * it at every mode in the band (a resonance read from the lines sits on the line grid).
+   */
+  resonanceFrequencyPercent?: number;
 }
 
 export interface Advice {
@@ -73,6 +83,8 @@ export interface Advice {
   predicted95Db: number;
   transient?: { exponentialDecayFraction: number; tauS: number; addedDamping: { naturalFrequencyHz: number; addedDampingRatio: number }[] };
   recipe: Recipe;
+  /** The pre-flight check of the draft recipe on the scenario; its findings are also in warnings. */
+  preflight: Preflight;
   notes: string[];
   warnings: string[];
 }
@@ -100,21 +112,31 @@ export function adviseRecipe(scenarioInput: Scenario | ScenarioInput, options: A
   const overlap = e.kind === 'random' ? (options.overlap ?? 0.5) : 0;
 
   // Block length.
-  const targetDf = governing ? governing.halfPowerBandwidthHz / 4 : (band.highHz - band.lowHz) / 400;
+  let targetDf = governing ? governing.halfPowerBandwidthHz / 4 : (band.highHz - band.lowHz) / 400;
   if (!governing) notes.push('no mode inside the band: the resolution is set to 400 lines over the band');
+  let targetWhy = 'B_r/4';
+  const rfTol = options.resonanceFrequencyPercent;
+  if (rfTol !== undefined && inBand.length > 0) {
+    const lowest = Math.min(...inBand.map((m) => m.naturalFrequencyHz));
+    if ((rfTol * lowest) / 100 < targetDf) {
+      targetDf = (rfTol * lowest) / 100;
+      targetWhy = 'the resonance-frequency tolerance';
+      notes.push(`Δf ≤ ${fmt(targetDf)} Hz: the resonance-frequency tolerance of ${fmt(rfTol)} % at ${fmt(lowest)} Hz is finer than B_r/4`);
+    }
+  }
   let N = nextPow2(fs / targetDf);
   if (transient) {
     // A triggered block must fit inside one impact period (with its pretrigger).
     const fit = 2 ** Math.floor(Math.log2(0.9 * plan.periodSamples));
     if (N > fit) {
-      warnings.push(`the impact period (${fmt(plan.periodSamples / fs)} s) limits the block to ${fit} samples: Δf = ${fmt(fs / fit)} Hz, coarser than B_r/4 = ${fmt(targetDf)} Hz`);
+      warnings.push(`the impact period (${fmt(plan.periodSamples / fs)} s) limits the block to ${fit} samples: Δf = ${fmt(fs / fit)} Hz, coarser than ${targetWhy} = ${fmt(targetDf)} Hz`);
       N = fit;
     }
   }
   if (periodic || e.kind === 'burst-random') {
     N = plan.periodSamples;
     if (governing && fs / N > targetDf) {
-      warnings.push(`the excitation period gives Δf = ${fmt(fs / N)} Hz, coarser than B_r/4 = ${fmt(targetDf)} Hz: lengthen the period to ${nextPow2(fs / targetDf) / fs} s`);
+      warnings.push(`the excitation period gives Δf = ${fmt(fs / N)} Hz, coarser than ${targetWhy} = ${fmt(targetDf)} Hz: lengthen the period to ${nextPow2(fs / targetDf) / fs} s`);
     }
   }
   let bias: ResolutionBias | null = null;
@@ -182,6 +204,12 @@ export function adviseRecipe(scenarioInput: Scenario | ScenarioInput, options: A
     const leak = leakageCoherence(system.frf, f, powerKernel(window, N, { halfWidthBins: Math.min(32, N / 4), oversample: 8 }), df);
     for (let i = 0; i < f.length; i++) ec.coherence[i] *= leak[i];
   }
+  // Lines the excitation puts no force into show leakage and noise only: nothing can be promised
+  // there, whatever the noise (a noise-free scenario would otherwise predict coherence 1).
+  const force = forceSpectrumShape(e, f);
+  for (let i = 0; i < f.length; i++) if (!(force[i] > 0)) ec.coherence[i] = 0;
+  const delay = s.errors.delayS ? delayBias(window, N, fs, s.errors.delayS, band.highHz) : null;
+  if (delay) for (let i = 0; i < f.length; i++) ec.coherence[i] *= delay.coherenceFactor;
   // Size on the lowest expected coherence among lines at or above the floor; lines below it are
   // named in a warning (no number of averages makes a promise there worth giving).
   const floor = options.minSizingCoherence ?? 0.5;
@@ -201,7 +229,8 @@ export function adviseRecipe(scenarioInput: Scenario | ScenarioInput, options: A
   }
   if (worst < 0) worst = best;
   const g2 = Math.min(1, ec.coherence[worst] ?? 1);
-  const budget = tol - Math.abs(bias?.kernel ?? 0);
+  const delayLoss = delay ? 1 - delay.magnitudeFactor : 0;
+  const budget = tol - Math.abs(bias?.kernel ?? 0) - delayLoss;
   const maxAverages = options.maxAverages ?? 1000;
   let nd = MIN_AVERAGES;
   if (g2 < 1 && budget > 0) nd = Math.max(nd, Math.ceil((1 - g2) / (2 * g2 * (budget / NORMAL_95) ** 2)));
@@ -220,20 +249,19 @@ export function adviseRecipe(scenarioInput: Scenario | ScenarioInput, options: A
     neff = effectiveAverages(w, step, blocks);
   }
   const recordSamples = transient ? plan.periodSamples * blocks : N + (blocks - 1) * step;
-  if (recordSamples > plan.recordSamples) {
-    warnings.push(`the scenario's record (${fmt(plan.recordSamples / fs)} s) is shorter than the ${fmt(recordSamples / fs)} s advised`);
-  }
   const predicted = new Float64Array(f.length);
   for (let i = 0; i < f.length; i++) {
     const c = Math.min(1, ec.coherence[i]);
     predicted[i] = Math.sqrt(1 - c) / (Math.sqrt(c) * Math.sqrt(2 * neff));
   }
-  const worst95 = Math.abs(bias?.kernel ?? 0) + NORMAL_95 * (predicted[worst] ?? 0);
+  const worst95 = Math.abs(bias?.kernel ?? 0) + delayLoss + NORMAL_95 * (predicted[worst] ?? 0);
 
   const noisyIn = s.errors.inputNoise !== undefined;
   const noisyOut = s.errors.outputNoise !== undefined;
   const estimator = noisyIn && noisyOut ? 'Hv' : noisyIn ? 'H2' : 'H1';
-  if (s.errors.delayS) notes.push(`a channel delay of ${s.errors.delayS} s biases |H1| by about −τ/T = ${fmt((-100 * Math.abs(s.errors.delayS)) / blockS)} % (rectangular window; Bendat & Piersol, quoted from memory); compensate it before processing`);
+  if (delay) {
+    notes.push(`a channel delay of ${s.errors.delayS} s biases |Ĥ| by ${fmt(delay.magnitudeDb)} dB with the ${window} window over ${fmt(blockS)} s blocks (the window's correlation at the lag; 1 − τ/T for rectangular), lowers the coherence by the square of that, and shifts the phase by −360·f·τ, ${fmt(delay.phaseDegAt)}° at ${fmt(band.highHz)} Hz, which no averaging removes; compensate it before processing`);
+  }
   if (s.errors.gainMismatch) notes.push(`the gain mismatch adds ${fmt(20 * Math.log10(s.errors.gainMismatch))} dB at every line; no processing removes it`);
 
   const recipe: Recipe = {
@@ -246,9 +274,12 @@ export function adviseRecipe(scenarioInput: Scenario | ScenarioInput, options: A
     estimator,
     band: { lowHz: band.lowHz, highHz: band.highHz },
     scaling: 'density',
-    tolerances: { magnitudeDb: options.targetMagnitudeDb },
+    tolerances: { magnitudeDb: options.targetMagnitudeDb, ...(rfTol !== undefined ? { resonanceFrequencyPercent: rfTol } : {}) },
     ...(recipeTransient ? { transient: recipeTransient } : {}),
   };
+  // The same rules as a study: findings of the pre-flight check on the draft recipe.
+  const check = preflight(recipe, s);
+  for (const finding of [...check.refusals, ...check.warnings]) warnings.push(findingText(finding));
   return {
     scenarioName: s.name,
     targetMagnitudeDb: options.targetMagnitudeDb,
@@ -269,6 +300,7 @@ export function adviseRecipe(scenarioInput: Scenario | ScenarioInput, options: A
     predicted95Db: worst95 < 1 ? -20 * Math.log10(1 - worst95) : NaN,
     ...(transientAdvice ? { transient: transientAdvice } : {}),
     recipe,
+    preflight: check,
     notes,
     warnings,
   };

@@ -35,3 +35,9 @@ export * from './scores/expected-coherence';
 export * from './study';
 export * from './advice';
 export * from './worker-run';
+
+export * from './preflight/findings';
+export * from './preflight/check';
+export { MIN_EFFECTIVE_AVERAGES, blocksForEffectiveAverages } from './preflight/warnings';
+export { stationaryBlocks } from './preflight/figures';
+export * from './delay-bias';

@@ -143,16 +143,27 @@ export interface ResolvedRecipe {
 }
 
 /**
+ * The block length N a recipe asks for at `sampleRateHz`: its blockLength, or the shortest
+ * power-of-two block whose line spacing fs/N is no coarser than its frequencyResolutionHz.
+ * Not checked against a record or MAX_BLOCK_LENGTH here (resolveRecipe does that).
+ */
+export function recipeBlockLength(recipe: Pick<Recipe, 'blockLength' | 'frequencyResolutionHz'>, sampleRateHz: number): number {
+  if (recipe.frequencyResolutionHz !== undefined) {
+    return 2 ** Math.max(2, Math.ceil(Math.log2(sampleRateHz / recipe.frequencyResolutionHz) - 1e-12));
+  }
+  return recipe.blockLength ?? 0;
+}
+
+/**
  * Resolves `recipe` for a record of `samples` samples at `sampleRateHz`. A frequency resolution
  * becomes the shortest power-of-two block whose line spacing fs/N is no coarser than asked.
  */
 export function resolveRecipe(recipe: Recipe, record: { sampleRateHz: number; samples: number }): ResolvedRecipe {
   const fs = record.sampleRateHz;
   const warnings: string[] = [];
-  let blockLength = recipe.blockLength ?? 0;
+  const blockLength = recipeBlockLength(recipe, fs);
   if (recipe.frequencyResolutionHz !== undefined) {
     const df = recipe.frequencyResolutionHz;
-    blockLength = 2 ** Math.max(2, Math.ceil(Math.log2(fs / df) - 1e-12));
     if (blockLength > MAX_BLOCK_LENGTH) {
       throw new EngineInputError('frequencyResolutionHz', df, `needs a block of ${blockLength} samples, above ${MAX_BLOCK_LENGTH}`);
     }

@@ -23,8 +23,9 @@ beforeAll(async () => {
   ids.noisy = await post('scenarios', smallScenario());
   ids.exactRecipe = await post('recipes', periodicRecipe());
   ids.hannRecipe = await post('recipes', smallRecipe());
-  // A block of 8192 samples cannot fit the scenarios' 4096-sample records: every run fails.
-  ids.tooLong = await post('recipes', { ...smallRecipe('Block longer than the record'), blockLength: 8192 });
+  // A softening cubic spring this strong makes the response diverge: the pre-flight check cannot
+  // see it (it depends on the simulated level), so every run fails.
+  ids.diverging = await post('scenarios', { ...smallScenario('Softening spring that diverges'), errors: { cubicStiffness: { k3NPerM3: -1e14 } } });
 }, 30_000);
 afterAll(() => t.close());
 
@@ -111,16 +112,16 @@ describe('a study from start to finished', () => {
 
 describe('a study whose runs fail', () => {
   it('records each run error, ends as failed, says which runs, and mails the author', async () => {
-    const res = await start({ name: 'Too long a block', recipe: { id: ids.tooLong }, scenarios: [{ id: ids.noisy }], seeds: 2 }).expect(202);
+    const res = await start({ name: 'A diverging spring', recipe: { id: ids.hannRecipe }, scenarios: [{ id: ids.diverging }], seeds: 2 }).expect(202);
     const study = await waitForStudy(analyst, `${lab}/studies/${res.body.id}`);
     expect(study).toMatchObject({ status: 'failed', progress: { done: 2, failed: 2, total: 2 }, pass: false });
-    expect(study.error).toMatch(/2 run problem\(s\): "SDOF 50 Hz, output noise" seed 1 \(run 1\): blockLength=8192/);
+    expect(study.error).toMatch(/2 run problem\(s\): "Softening spring that diverges" seed 1 \(run 1\): errors.cubicStiffness.k3NPerM3/);
     const runs = await analyst.get(`${lab}/studies/${res.body.id}/runs`).expect(200);
     expect(runs.body.items.map((r: { status: string }) => r.status)).toEqual(['failed', 'failed']);
-    expect(runs.body.items[0].error).toMatch(/needs 8192 samples per block, more than the record's 4096/);
+    expect(runs.body.items[0].error).toMatch(/makes the response diverge at this level/);
     const results = await analyst.get(`${lab}/studies/${res.body.id}/results`).expect(200);
     expect(results.body.scenarios[0]).toMatchObject({ seeds: 0, failedRuns: 2, pass: false, criteria: [] });
-    await t.waitForMail('analyst@harborridge.test', (m) => m.subject === 'Study failed: Too long a block');
+    await t.waitForMail('analyst@harborridge.test', (m) => m.subject === 'Study failed: A diverging spring');
   }, 60_000);
 });
 

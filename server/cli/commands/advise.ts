@@ -4,6 +4,7 @@
  * with the errors it should give. The draft can be saved as a recipe file and run with verify.
  */
 import { adviseRecipe, type Advice } from '@/shared/engine/advice';
+import { findingText } from '@/shared/engine/preflight/check';
 import { parseScenario } from '@/shared/engine/scenario';
 import type { WindowName } from '@/shared/engine/types';
 import { WINDOW_NAMES } from '@/shared/engine/windows';
@@ -42,11 +43,13 @@ Options:
   --window NAME          window for random excitation (default hann)
   --overlap F            overlap for random excitation, fraction in [0, 1) (default 0.5)
   --max-averages N       cap on the averages (default 1000)
+  --resonance-tolerance P  resonance-frequency tolerance, % of f_n: lines no coarser than it
   --format table|json    default table; json holds the whole advice with the draft recipe
   --output FILE          where the advice goes (default: stdout)
   --recipe-out FILE      also write the draft recipe as a recipe JSON file for "verify"
 
-Exit status: 0 done; 2 bad input (message on stderr, no output file written).
+Exit status: 0 done; 2 bad input, or a band the pre-flight check refuses on the scenario
+(message on stderr, no output file written).
 `;
 
 function run(values: ParsedValues): number {
@@ -58,6 +61,7 @@ function run(values: ParsedValues): number {
   if (window === 'kaiser') throw new CliInputError('--window kaiser is not offered by advise (it needs a β); pick another');
   const overlap = numberOption(values, 'overlap', undefined, { min: 0, below: 1 });
   const maxAverages = numberOption(values, 'max-averages', undefined, { integer: true, min: 10 });
+  const resonanceFrequencyPercent = numberOption(values, 'resonance-tolerance', undefined, { above: 0, max: 100 });
   const format = choiceOption(values, 'format', ['table', 'json'] as const, 'table');
   const outputPath = optionalString(values, 'output');
   const recipePath = optionalString(values, 'recipe-out');
@@ -65,7 +69,14 @@ function run(values: ParsedValues): number {
   checkOutputPath(recipePath, 'recipe-out');
 
   const scenario = parseJsonFile(scenarioPath, '--scenario', parseScenario);
-  const advice = adviseRecipe(scenario, { targetMagnitudeDb, band, window, overlap, maxAverages });
+  const advice = adviseRecipe(scenario, { targetMagnitudeDb, band, window, overlap, maxAverages, resonanceFrequencyPercent });
+  // A band the scenario cannot measure is the caller's input and stops here; a record shorter than
+  // the draft needs is advice (it stays among the warnings: lengthen the record).
+  const bandRefusals = advice.preflight.refusals.filter((f) => f.setting === 'band');
+  if (bandRefusals.length > 0) {
+    const refusals = bandRefusals.map((f) => findingText(f)).join('\n  ');
+    throw new CliInputError(`the draft recipe cannot run on "${advice.scenarioName}":\n  ${refusals}`);
+  }
   const files = recipePath !== undefined ? [{ path: recipePath, text: toJson(advice.recipe) }] : [];
   const text = format === 'json' ? toJson(advice) : adviceText(advice);
   writeOutputs(files, outputPath, text);
@@ -115,6 +126,7 @@ export const adviseCommand: CliCommand = {
     window: { type: 'string' },
     overlap: { type: 'string' },
     'max-averages': { type: 'string' },
+    'resonance-tolerance': { type: 'string' },
     format: { type: 'string' },
     output: { type: 'string' },
     'recipe-out': { type: 'string' },

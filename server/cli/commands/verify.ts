@@ -5,6 +5,7 @@
  */
 import { parseRecipe } from '@/shared/engine/recipe';
 import { parseScenario } from '@/shared/engine/scenario';
+import { checkBeforeRunning } from '../preflight';
 import type { Criterion } from '@/shared/engine/scores/criteria';
 import { runStudy, type ComparisonAggregate, type StudyResult } from '@/shared/engine/study';
 import {
@@ -55,7 +56,8 @@ window; the comparison with the plain FRF (damping corrected by 1/(ω·τ)) is s
 
 Table: one block per scenario; each criterion with PASS or FAIL, the observed value with its
 unit, the limit, and the line (Hz) that decided it.
-Exit status: 0 every criterion passed; 1 at least one failed; 2 bad input.
+Exit status: 0 every criterion passed; 1 at least one failed; 2 bad input, or a recipe the
+pre-flight check refuses on a scenario (each refusal on stderr; its warnings go there too).
 `;
 
 function run(values: ParsedValues): number {
@@ -73,6 +75,7 @@ function run(values: ParsedValues): number {
 
   const recipe = parseJsonFile(recipePath, '--recipe', parseRecipe);
   const scenarios = scenarioPaths.map((path) => parseJsonFile(path, '--scenario', parseScenario));
+  checkBeforeRunning(recipe, scenarios, (text) => process.stderr.write(text));
   const progress = values.progress === true;
   let study: StudyResult;
   try {

@@ -16,6 +16,7 @@ import {
   type Study,
   type StudyStatus,
 } from '@/shared/api/work';
+import { studyPreflightSchema } from '@/shared/api/preflight';
 import { api } from './client';
 import { labPath } from './labs';
 
@@ -25,6 +26,7 @@ export const studyKeys = {
   list: (labId: string, filter: { status?: StudyStatus; limit?: number } = {}) => [...studyKeys.lab(labId), 'list', filter] as const,
   detail: (labId: string, id: string) => [...studyKeys.lab(labId), 'detail', id] as const,
   results: (labId: string, id: string) => [...studyKeys.lab(labId), 'results', id] as const,
+  preflight: (labId: string, recipeId: string, scenarioIds: string[]) => [...studyKeys.lab(labId), 'preflight', recipeId, ...scenarioIds] as const,
 };
 
 export const isActive = (status: StudyStatus | undefined) => status === 'queued' || status === 'running';
@@ -70,6 +72,17 @@ export function useStartStudy(labId: string) {
   return useMutation({
     mutationFn: (request: StartStudyRequest) => api.post(labPath(labId, '/studies'), startStudySchema.parse(request), { schema: studySchema }),
     onSuccess: (study) => afterStudyChange(client, labId, study),
+  });
+}
+
+/** The live pre-flight check of a recipe (latest version) on the ticked scenarios; nothing is stored. */
+export function useStudyPreflight(labId: string, recipeId: string, scenarioIds: string[]) {
+  return useQuery({
+    queryKey: studyKeys.preflight(labId, recipeId, scenarioIds),
+    queryFn: ({ signal }) =>
+      api.post(labPath(labId, '/studies/preflight'), { recipe: { id: recipeId }, scenarios: scenarioIds.map((id) => ({ id })) }, { schema: studyPreflightSchema, signal }),
+    enabled: labId !== '' && recipeId !== '' && scenarioIds.length > 0,
+    placeholderData: keepPreviousData,
   });
 }
 
