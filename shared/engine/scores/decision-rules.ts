@@ -119,3 +119,13 @@ export function decide(criterion: Criterion, replicates: ArrayLike<number>, rule
     resamples: n,
   };
 }
+
+/** The rule in words, as reports and screens state it. */
+export function decisionRuleWords(rule: DecisionRule | undefined): string {
+  const r = rule ?? SIMPLE_ACCEPTANCE;
+  if (r.kind === 'simple') return 'simple acceptance (w = 0; ILAC G8 §4.2.1)';
+  const w = (r.factor ?? 1) === 1 ? 'w = U' : `w = ${r.factor}·U`;
+  return r.kind === 'guard-band'
+    ? `guard band ${w}, U = 2u (k = 2), pass or fail (ILAC G8 §4.2.2)`
+    : `guard band ${w}, U = 2u (k = 2), with a conditional zone ±w about the limit (ILAC G8 §4.2.3)`;
+}
