@@ -6,6 +6,7 @@
  * event loop for a large study); the demo seed runs it in-thread. Relative imports only (workers).
  */
 import { parseRecipe } from '../../shared/engine/recipe';
+import { parseScenario } from '../../shared/engine/scenario';
 import type { MonteCarloAggregate } from '../../shared/engine/scores/monte-carlo';
 import { SEED_STRIDE, type ComparisonAggregate, type RunResult } from '../../shared/engine/study';
 import { adaptiveCheck } from '../../shared/engine/adaptive-study';
@@ -78,7 +79,7 @@ export function assembleScenarioTask(task: AssembleTask): AssembleOutcome {
   // Run r of the scenario at position j has seed base + j·STRIDE + r: as a one-scenario study,
   // that is base' = base + j·STRIDE.
   const options = task.adaptive?.options ?? { batchSize: Math.max(2, task.seeds), significantDigits: 1 };
-  const { result: r, state } = adaptiveCheck(parseRecipe(task.recipe), task.scenario as never, task.baseSeed + task.position * SEED_STRIDE, runs, options, task.adaptive?.maxSeeds ?? task.seeds);
+  const { result: r, state } = adaptiveCheck(parseRecipe(task.recipe), parseScenario(task.scenario), task.baseSeed + task.position * SEED_STRIDE, runs, options, task.adaptive?.maxSeeds ?? task.seeds);
   return {
     curves: [...curvesOf(r.judged.aggregate), ...(r.plain ? curvesOf(r.plain.aggregate, 'plain.') : [])],
     reference: r.reference,

@@ -49,13 +49,6 @@ export interface SchedulerDeps {
 
 export const STUDY_JOB = 'study';
 
-declare module '../app' {
-  interface AppDeps {
-    /** Background studies; absent when the server runs without a scheduler. */
-    studyQueue?: StudyQueue;
-  }
-}
-
 export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
   const events = new EventEmitter();
   events.setMaxListeners(0);
