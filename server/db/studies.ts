@@ -19,6 +19,8 @@ export interface StudyRow {
   recipe_name: string;
   seeds: number;
   base_seed: number;
+  /** JSON of the adaptive option (shared/engine/adaptive-stopping.ts), null for fixed seeds. */
+  adaptive: string | null;
   status: StudyStatus;
   runs_done: number;
   runs_failed: number;
@@ -116,6 +118,7 @@ export interface NewStudy {
   scenarios: { id: string; version: number }[];
   seeds: number;
   baseSeed: number;
+  adaptive?: { batchSize: number; significantDigits: number };
   engineVersion: string;
   createdBy: string;
   at: number;
@@ -133,6 +136,7 @@ export async function insertStudy(trx: Db, s: NewStudy): Promise<string> {
     recipe_version: s.recipeVersion,
     seeds: s.seeds,
     base_seed: s.baseSeed,
+    adaptive: s.adaptive ? JSON.stringify(s.adaptive) : null,
     status: 'queued',
     runs_total: s.scenarios.length * s.seeds,
     engine_version: s.engineVersion,

@@ -8,7 +8,9 @@
 import { parseRecipe } from '../../shared/engine/recipe';
 import { parseScenario } from '../../shared/engine/scenario';
 import type { MonteCarloAggregate } from '../../shared/engine/scores/monte-carlo';
-import { assembleStudy, SEED_STRIDE, type ComparisonAggregate, type RunResult } from '../../shared/engine/study';
+import { SEED_STRIDE, type ComparisonAggregate, type RunResult } from '../../shared/engine/study';
+import { adaptiveCheck } from '../../shared/engine/adaptive-study';
+import type { AdaptiveOptions, AdaptiveState } from '../../shared/engine/adaptive-stopping';
 import { unpackValue } from '../db/float-blob';
 
 export interface AssembleTask {
@@ -20,6 +22,8 @@ export interface AssembleTask {
   baseSeed: number;
   /** The scenario's runs, packed (db/float-blob.packValue), in any order. */
   runs: Uint8Array[];
+  /** Adaptive studies: the option and the maximum seeds, to judge whether to stop. */
+  adaptive?: { options: AdaptiveOptions; maxSeeds: number };
 }
 
 export interface AssembledComparison {
@@ -37,24 +41,30 @@ export interface AssembleOutcome {
   warnings: { message: string; runs: number }[];
   judged: AssembledComparison;
   plain: AssembledComparison | null;
+  /** Adaptive studies: the stability of each criterion and whether to stop. */
+  adaptive: AdaptiveState | null;
 }
 
 const finite = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
-function comparison(c: ComparisonAggregate): AssembledComparison {
-  const a = c.aggregate;
+/** The band figures stored per comparison (also rebuilt by re-verification). */
+export function bandFiguresOf(a: MonteCarloAggregate): Record<string, number | null> {
   return {
-    pass: c.pass,
-    criteria: c.criteria,
-    modes: c.modes,
-    figures: {
-      seeds: a.seeds,
-      lines: a.lines,
-      overallCoverage: finite(a.overallCoverage),
-      overallPhaseCoverage: finite(a.overallPhaseCoverage),
-      medianRandomErrorRatio: finite(a.medianRandomErrorRatio),
-    },
+    seeds: a.seeds,
+    lines: a.lines,
+    overallCoverage: finite(a.overallCoverage),
+    overallPhaseCoverage: finite(a.overallPhaseCoverage),
+    medianRandomErrorRatio: finite(a.medianRandomErrorRatio),
+    overallCoverageSe: finite(a.band.overallCoverageSe),
+    overallPhaseCoverageSe: finite(a.band.overallPhaseCoverageSe),
+    overallExactRegionCoverage: finite(a.band.overallExactRegionCoverage),
+    overallExactRegionCoverageSe: finite(a.band.overallExactRegionCoverageSe),
+    medianRandomErrorRatioSe: finite(a.band.medianRandomErrorRatioSe),
   };
+}
+
+function comparison(c: ComparisonAggregate): AssembledComparison {
+  return { pass: c.pass, criteria: c.criteria, modes: c.modes, figures: bandFiguresOf(c.aggregate) };
 }
 
 function curvesOf(a: MonteCarloAggregate, prefix = ''): { kind: string; values: Float64Array }[] {
@@ -64,17 +74,12 @@ function curvesOf(a: MonteCarloAggregate, prefix = ''): { kind: string; values: 
 }
 
 export function assembleScenarioTask(task: AssembleTask): AssembleOutcome {
-  const r = assembleStudy(
-    {
-      recipe: parseRecipe(task.recipe),
-      scenarios: [parseScenario(task.scenario)],
-      seeds: task.seeds,
-      // Run r of the scenario at position j has seed base + j·STRIDE + r: as a one-scenario
-      // study, that is base' = base + j·STRIDE.
-      baseSeed: task.baseSeed + task.position * SEED_STRIDE,
-    },
-    task.runs.map((b) => unpackValue<RunResult>(b)),
-  ).results[0];
+  const runs = task.runs.map((b) => unpackValue<RunResult>(b));
+  if (runs.length !== task.seeds) throw new Error(`assemble: ${runs.length} runs given for ${task.seeds} seeds`);
+  // Run r of the scenario at position j has seed base + j·STRIDE + r: as a one-scenario study,
+  // that is base' = base + j·STRIDE.
+  const options = task.adaptive?.options ?? { batchSize: Math.max(2, task.seeds), significantDigits: 1 };
+  const { result: r, state } = adaptiveCheck(parseRecipe(task.recipe), parseScenario(task.scenario), task.baseSeed + task.position * SEED_STRIDE, runs, options, task.adaptive?.maxSeeds ?? task.seeds);
   return {
     curves: [...curvesOf(r.judged.aggregate), ...(r.plain ? curvesOf(r.plain.aggregate, 'plain.') : [])],
     reference: r.reference,
@@ -82,5 +87,6 @@ export function assembleScenarioTask(task: AssembleTask): AssembleOutcome {
     warnings: r.warnings,
     judged: comparison(r.judged),
     plain: r.plain ? comparison(r.plain) : null,
+    adaptive: task.adaptive ? state : null,
   };
 }

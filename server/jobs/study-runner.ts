@@ -6,7 +6,7 @@
 import type { StudyProgress } from '@/shared/api/work';
 import { studySeed } from '@/shared/engine/study';
 import type { Db } from '../db/knex';
-import { cancelRequested, findStudyById, storeRun, storedRunKeys, studyScenarios, updateStudy, type StudyRow, type StudyScenarioRow } from '../db/studies';
+import { cancelRequested, findStudyById, listRuns, storeRun, storedRunKeys, studyScenarios, updateStudy, type StudyRow, type StudyScenarioRow } from '../db/studies';
 import { findVersion } from '../db/versioned';
 import { findUserById } from '../db/users';
 import type { Logger } from '../logger';
@@ -47,12 +47,14 @@ export async function runStudy(deps: RunnerDeps, studyId: string, hooks: StudyRu
   if (!recipe) throw new Error(`recipe ${study.recipe_id} v${study.recipe_version} of study ${studyId} is missing`);
   await updateStudy(db, studyId, { status: 'running', started_at: study.started_at ?? Date.now() });
 
+  const recipeBody = JSON.parse(recipe.body) as unknown;
+  const adaptive = study.adaptive ? (JSON.parse(study.adaptive) as { batchSize: number; significantDigits: number }) : null;
   const stored = await storedRunKeys(db, studyId);
-  const todo = missingRuns(study, scenarios, JSON.parse(recipe.body), stored);
+  const first = adaptive ? await nextBatch(deps, study, scenarios, recipeBody, adaptive) : missingRuns(study, scenarios, recipeBody, stored);
   const pace = { since: Date.now(), doneAtStart: study.runs_done };
   let done = study.runs_done;
   let failed = study.runs_failed;
-  let current: string | null = todo[0]?.scenarioId ?? study.current_scenario_id;
+  let current: string | null = first[0]?.scenarioId ?? study.current_scenario_id;
   const progress = (status: StudyProgress['status']): StudyProgress => ({
     status,
     done,
@@ -63,44 +65,58 @@ export async function runStudy(deps: RunnerDeps, studyId: string, hooks: StudyRu
   });
   hooks.progress(studyId, progress('running'));
 
-  let next = 0;
   let cancelled = false;
-  const lane = async () => {
-    for (;;) {
-      if (hooks.stopping.aborted || cancelled) return;
-      if (await cancelRequested(db, studyId)) {
-        cancelled = true;
-        return;
+  const runAll = async (todo: RunTask[]) => {
+    let next = 0;
+    const lane = async () => {
+      for (;;) {
+        if (hooks.stopping.aborted || cancelled) return;
+        if (await cancelRequested(db, studyId)) {
+          cancelled = true;
+          return;
+        }
+        const task = todo[next++];
+        if (!task) return;
+        current = task.scenarioId;
+        const outcome = await deps.executor.run(task, hooks.stopping).catch((err: Error): RunOutcome | null =>
+          hooks.stopping.aborted ? null : { ok: false, error: `worker: ${err.message}`, startedAt: Date.now(), finishedAt: Date.now() },
+        );
+        if (!outcome || hooks.stopping.aborted) return;
+        const isNew = await storeRun(db, {
+          study_id: studyId,
+          scenario_id: task.scenarioId,
+          scenario_version: scenarios[task.position].scenario_version,
+          position: task.position,
+          seed_index: task.seedIndex,
+          seed: task.seed,
+          status: outcome.ok ? 'finished' : 'failed',
+          summary: outcome.ok ? JSON.stringify(outcome.summary) : null,
+          line_scores: outcome.ok ? Buffer.from(outcome.lineScores.buffer, outcome.lineScores.byteOffset, outcome.lineScores.byteLength) : null,
+          error: outcome.ok ? null : outcome.error,
+          started_at: outcome.startedAt,
+          finished_at: outcome.finishedAt,
+        });
+        if (isNew) {
+          done++;
+          if (!outcome.ok) failed++;
+        }
+        hooks.progress(studyId, progress('running'));
       }
-      const task = todo[next++];
-      if (!task) return;
-      current = task.scenarioId;
-      const outcome = await deps.executor.run(task, hooks.stopping).catch((err: Error): RunOutcome | null =>
-        hooks.stopping.aborted ? null : { ok: false, error: `worker: ${err.message}`, startedAt: Date.now(), finishedAt: Date.now() },
-      );
-      if (!outcome || hooks.stopping.aborted) return;
-      const isNew = await storeRun(db, {
-        study_id: studyId,
-        scenario_id: task.scenarioId,
-        scenario_version: scenarios[task.position].scenario_version,
-        position: task.position,
-        seed_index: task.seedIndex,
-        seed: task.seed,
-        status: outcome.ok ? 'finished' : 'failed',
-        summary: outcome.ok ? JSON.stringify(outcome.summary) : null,
-        line_scores: outcome.ok ? Buffer.from(outcome.lineScores.buffer, outcome.lineScores.byteOffset, outcome.lineScores.byteLength) : null,
-        error: outcome.ok ? null : outcome.error,
-        started_at: outcome.startedAt,
-        finished_at: outcome.finishedAt,
-      });
-      if (isNew) {
-        done++;
-        if (!outcome.ok) failed++;
-      }
-      hooks.progress(studyId, progress('running'));
-    }
+    };
+    await Promise.all(Array.from({ length: Math.max(1, deps.executor.capacity) }, lane));
   };
-  await Promise.all(Array.from({ length: Math.max(1, deps.executor.capacity) }, lane));
+  // Adaptive studies run batch after batch until every scenario has stopped (adaptiveBatch).
+  const stopped = new Set<number>();
+  for (let todo = first; todo.length > 0; ) {
+    await runAll(todo);
+    if (!adaptive || hooks.stopping.aborted || cancelled) break;
+    todo = await nextBatch(deps, study, scenarios, recipeBody, adaptive, hooks.stopping, stopped);
+  }
+  if (adaptive && !hooks.stopping.aborted && !cancelled) {
+    // The maximum was an upper bound: the study's total becomes the runs it took.
+    study.runs_total = done;
+    await updateStudy(db, studyId, { runs_total: done });
+  }
 
   if (hooks.stopping.aborted) return 'interrupted';
   if (cancelled) return endCancelled(deps, study, hooks);
@@ -123,6 +139,66 @@ export function missingRuns(study: StudyRow, scenarios: StudyScenarioRow[], reci
       if (stored.has(`${s.position}:${i}`)) continue;
       out.push({ studyId: study.id, position: s.position, scenarioId: s.scenario_id, seedIndex: i, seed: studySeed(study.base_seed, s.position, i), scenario, recipe });
     }
+  }
+  return out;
+}
+
+/**
+ * The next batch of an adaptive study (JCGM 101 §7.9, shared/engine/adaptive-stopping.ts): for each
+ * scenario that has not stopped, the runs that complete its current batch of `batchSize` seeds. A
+ * scenario stops when its stored runs reach the maximum, when one of them failed, or when, after
+ * at least two complete batches, the engine judges every criterion stable. The judgement uses the
+ * stored runs only, so a resumed study takes the same decisions and the same seeds.
+ */
+export async function nextBatch(
+  deps: RunnerDeps,
+  study: StudyRow,
+  scenarios: StudyScenarioRow[],
+  recipe: unknown,
+  adaptive: { batchSize: number; significantDigits: number },
+  signal?: AbortSignal,
+  stopped = new Set<number>(),
+): Promise<RunTask[]> {
+  const h = adaptive.batchSize;
+  const runs = await listRuns(deps.db, study.id, { withScores: true });
+  const out: RunTask[] = [];
+  for (const s of scenarios) {
+    if (stopped.has(s.position)) continue;
+    const mine = runs.filter((r) => r.position === s.position);
+    const n = mine.length;
+    const scenario = JSON.parse(s.body);
+    const task = (i: number): RunTask => ({ studyId: study.id, position: s.position, scenarioId: s.scenario_id, seedIndex: i, seed: studySeed(study.base_seed, s.position, i), scenario, recipe });
+    const reached = n > 0 ? mine[n - 1].seed_index + 1 : 0;
+    if (reached > n) {
+      // Runs lost in flight when the server stopped: fill the gaps of the sequence first.
+      const have = new Set(mine.map((r) => r.seed_index));
+      for (let i = 0; i < reached; i++) if (!have.has(i)) out.push(task(i));
+      continue;
+    }
+    if (n >= study.seeds || mine.some((r) => r.status === 'failed')) {
+      stopped.add(s.position);
+      continue;
+    }
+    if (n > 0 && n % h === 0 && n >= 2 * h) {
+      const check = await deps.executor.assemble(
+        {
+          recipe,
+          scenario: JSON.parse(s.body),
+          position: s.position,
+          seeds: n,
+          baseSeed: study.base_seed,
+          runs: mine.map((r) => new Uint8Array(r.line_scores!.buffer, r.line_scores!.byteOffset, r.line_scores!.byteLength)),
+          adaptive: { options: adaptive, maxSeeds: study.seeds },
+        },
+        signal,
+      );
+      if (check.adaptive?.stop) {
+        stopped.add(s.position);
+        continue;
+      }
+    }
+    const end = Math.min(study.seeds, (Math.floor(n / h) + 1) * h);
+    for (let i = n; i < end; i++) out.push(task(i));
   }
   return out;
 }

@@ -5,6 +5,8 @@
  * same sha256.
  */
 import type { ReportContent, Scope, Signature } from '@/shared/api/approval';
+import type { CriterionResult } from '@/shared/api/work';
+import { decisionRuleWords } from '@/shared/engine/scores/decision-rules';
 import { parseRecipe } from '@/shared/engine/recipe';
 import { SEED_RULE, studySeed } from '@/shared/engine/study';
 import { ENGINE_VERSION } from '@/shared/engine/version';
@@ -30,6 +32,40 @@ export const CAUTIONS = [
 ];
 
 const verdict = (pass: boolean) => (pass ? 'PASS' : 'FAIL') as 'PASS' | 'FAIL';
+const criterionVerdict = (c: CriterionResult): 'PASS' | 'FAIL' | 'CONDITIONAL' => (c.decision === 'conditional' ? 'CONDITIONAL' : verdict(c.pass));
+const sig = (v: number) => Number(v.toPrecision(3)).toString();
+
+function criterionEntry(c: CriterionResult) {
+  const base = { label: c.label, limit: c.limit, observed: c.observed, unit: c.unit, pass: c.pass, verdict: criterionVerdict(c), worstLineHz: c.worstLineHz };
+  if (!c.decision) return base;
+  return {
+    ...base,
+    rule: decisionRuleWords(c.rule),
+    expandedUncertainty: c.expandedUncertainty ?? null,
+    guardBand: c.guardBand ?? null,
+    acceptanceLimit: c.acceptanceLimit ?? null,
+    falseAcceptProbability: c.falseAcceptProbability ?? null,
+    falseRejectProbability: c.falseRejectProbability ?? null,
+  };
+}
+
+/**
+ * The statement of conformity of one scenario (ILAC G8:09/2019 §4.3; ISO/IEC 17025 §7.8.6.2): which
+ * decision rule each criterion used, the specification (the recipe version's limits) and the
+ * results it covers (this scenario version, these seeds, on this engine).
+ */
+function conformityStatement(recipe: { name: string; version: number }, scenario: string, seeds: string, criteria: CriterionResult[]): string | undefined {
+  if (criteria.length === 0 || !criteria.every((c) => c.decision)) return undefined;
+  const each = criteria.map((c) => {
+    const decision = c.decision ?? (c.pass ? 'pass' : 'fail');
+    const risk = decision === 'fail' ? c.falseRejectProbability : c.falseAcceptProbability;
+    const riskWords = risk === null || risk === undefined ? '' : `, probability of a false ${decision === 'fail' ? 'reject' : 'accept'} ${sig(risk * 100)} %`;
+    const observed = c.observed === null ? 'no figure' : `${sig(c.observed)} ${c.unit}`.trim();
+    const u = c.expandedUncertainty === null || c.expandedUncertainty === undefined ? '' : ` ± ${sig(c.expandedUncertainty)} (U, k = 2)`;
+    return `${c.label}: ${observed}${u} against ${c.id === 'coverage' || c.id === 'min-coherence' ? '≥' : '≤'} ${sig(c.limit)} ${c.unit}`.trim() + ` by ${decisionRuleWords(c.rule)} — ${decision.toUpperCase()}${riskWords}`;
+  });
+  return `Statement of conformity for scenario "${scenario}", ${seeds}, against the specification of recipe "${recipe.name}" version ${recipe.version}. ${each.join('; ')}. The uncertainty is the Monte Carlo uncertainty of each figure over the seeds (bootstrap, fixed seed); the statement covers these simulated results only.`;
+}
 
 function signatureOf(d: DecisionRow): Signature {
   return {
@@ -61,7 +97,7 @@ async function recipeOf(db: Db, labId: string, id: string, version: number) {
 }
 
 /** One study of a report: its scenarios in words, per-scenario criteria with verdicts, plots. */
-async function studyEntry(db: Db, labId: string, studyId: string, toleranceDb: number | undefined): Promise<ReportContent['studies'][number]> {
+async function studyEntry(db: Db, labId: string, studyId: string, toleranceDb: number | undefined, recipe: { name: string; version: number }): Promise<ReportContent['studies'][number]> {
   const study = await findStudy(db, labId, studyId);
   if (!study) throw notFound(`Study ${studyId}`);
   const results = await getStudyResults(db, labId, studyId);
@@ -83,6 +119,8 @@ async function studyEntry(db: Db, labId: string, studyId: string, toleranceDb: n
       const r = results.scenarios.find((x) => x.scenarioId === sc.scenario_id);
       const first = studySeed(study.base_seed, sc.position, 0);
       const pass = r?.pass ?? false;
+      const used = r?.adaptive?.seedsUsed ?? study.seeds;
+      const seeds = used === 1 ? `seed ${first}` : `seeds ${first}–${first + used - 1} (${used} seeds${r?.adaptive ? `, adaptive: stopped ${r.adaptive.stop === 'stable' ? 'as every criterion was stable' : 'at the maximum'}` : ''})`;
       return {
         id: sc.scenario_id,
         version: sc.scenario_version,
@@ -91,11 +129,12 @@ async function studyEntry(db: Db, labId: string, studyId: string, toleranceDb: n
         acquisition: acquisitionWords(scenario),
         excitation: excitationWords(scenario),
         errorSources: errorSourceWords(scenario),
-        seeds: study.seeds === 1 ? `seed ${first}` : `seeds ${first}–${first + study.seeds - 1} (${study.seeds} seeds)`,
+        seeds,
         pass,
         verdict: verdict(pass),
         reference: r?.reference ?? null,
-        criteria: (r?.criteria ?? []).map((c) => ({ label: c.label, limit: c.limit, observed: c.observed, unit: c.unit, pass: c.pass, verdict: verdict(c.pass), worstLineHz: c.worstLineHz })),
+        criteria: (r?.criteria ?? []).map(criterionEntry),
+        ...(r ? { conformity: conformityStatement(recipe, sc.name, seeds, r.criteria) } : {}),
         figures: r?.figures ?? {},
         warnings: [...(r?.referenceNote ? [r.referenceNote] : []), ...(r?.warnings ?? []).map((w) => `${w.message} (${w.runs} run(s))`)],
         plot: r ? scenarioPlot(r, scenario, toleranceDb) : null,
@@ -127,7 +166,7 @@ export async function studyReportContent(db: Db, labId: string, studyId: string)
   const { entry, recipe } = await recipeOf(db, labId, study.recipe_id, study.recipe_version);
   const submission = await submissionWithStudy(db, labId, studyId);
   const decision = submission?.decision_id ? await findDecision(db, submission.id) : undefined;
-  const studies = [await studyEntry(db, labId, studyId, recipe.tolerances.magnitudeDb)];
+  const studies = [await studyEntry(db, labId, studyId, recipe.tolerances.magnitudeDb, entry)];
   return {
     kind: 'study',
     title: `Validation report: study "${study.name}"`,
@@ -152,7 +191,7 @@ export async function standardReportContent(db: Db, labId: string, standardId: s
   const { entry, recipe } = await recipeOf(db, labId, standard.recipe.id, standard.recipe.version);
   const decision = await findDecision(db, standard.submissionId);
   const studies = [];
-  for (const id of standard.evidenceStudyIds) studies.push(await studyEntry(db, labId, id, recipe.tolerances.magnitudeDb));
+  for (const id of standard.evidenceStudyIds) studies.push(await studyEntry(db, labId, id, recipe.tolerances.magnitudeDb, entry));
   const recomputed = evidenceSha256(await evidenceDocument(db, labId, standard.recipe, standard.evidenceStudyIds, decision!.engine_version));
   const s = standard.scope;
   const stated = standard.purpose || `Approved processing standard of the lab for ${s.structureType}, ${s.band.lowHz}–${s.band.highHz} Hz, ${s.dampingPercent.min}–${s.dampingPercent.max} % damping, ${s.excitations.join(', ')} excitation.`;

@@ -68,10 +68,14 @@ export function leaves(value: unknown, prefix = '', out = new Map<string, Leaf>(
   return out;
 }
 
-/** Compares two JSON values leaf by leaf (both sides' paths). */
-export function compareTrees(stored: unknown, now: unknown, tol: number): LineComparison {
+/**
+ * Compares two JSON values leaf by leaf (both sides' paths; with storedPathsOnly, the stored side's
+ * paths only, for figures a newer engine adds — but a stored tree that is absent entirely still counts).
+ */
+export function compareTrees(stored: unknown, now: unknown, tol: number, opts: { storedPathsOnly?: boolean } = {}): LineComparison {
   const a = leaves(stored);
   const b = leaves(now);
-  const paths = [...new Set([...a.keys(), ...b.keys()])].sort();
+  const only = opts.storedPathsOnly && stored !== null && stored !== undefined;
+  const paths = [...new Set([...a.keys(), ...(only ? [] : b.keys())])].sort();
   return compareMany(paths.map((p) => [p, a.get(p), b.get(p)] as [string, Leaf | undefined, Leaf | undefined]), tol);
 }

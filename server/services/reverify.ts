@@ -7,6 +7,9 @@
  * It runs synchronously in the request, in this process, through the same engine calls the
  * background workers make (runScenarioSeed, then assembleStudy exactly as finaliseStudy does),
  * yielding to the event loop after each run so the API keeps answering meanwhile. That suits
+ * the small studies a standard is usually evidenced by. Figures the engine gained after a study
+ * was stored (Monte Carlo standard errors, decision rules, exact-region coverage) have nothing
+ * stored to compare with and are left out; every stored value is compared. That suits
  * the small studies a standard is usually evidenced by; a standard whose evidence holds more than
  * MAX_REVERIFY_RUNS runs is refused with a clear message rather than blocking the server.
  */
@@ -23,19 +26,17 @@ import { AppError, notFound } from '../errors';
 import { compareArrays, compareTrees, type LineComparison } from '../reports/result-compare';
 import { recordAudit } from './audit';
 import { getStandard } from './standards';
+import { bandFiguresOf } from '../jobs/assemble-scenario';
 import type { StoredStudySummary } from './study-results';
 
 export const MAX_REVERIFY_RUNS = 400;
 type Line = Reverification['lines'][number];
-const finite = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 const json = (v: unknown) => JSON.parse(JSON.stringify(v)) as unknown;
 const tick = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /** What finaliseStudy stores of a comparison, rebuilt from a fresh aggregate. */
 function storedShape(c: ComparisonAggregate) {
-  const a = c.aggregate;
-  const figures = { seeds: a.seeds, lines: a.lines, overallCoverage: finite(a.overallCoverage), overallPhaseCoverage: finite(a.overallPhaseCoverage), medianRandomErrorRatio: finite(a.medianRandomErrorRatio) };
-  return json({ pass: c.pass, criteria: c.criteria, modes: c.modes, figures }) as Record<string, unknown>;
+  return json({ pass: c.pass, criteria: c.criteria, modes: c.modes, figures: bandFiguresOf(c.aggregate) }) as Record<string, unknown>;
 }
 
 function curvesOf(a: MonteCarloAggregate, prefix: string, out: Map<string, Float64Array>) {
@@ -62,8 +63,10 @@ async function studyLines(db: Db, labId: string, studyId: string, lines: (Line &
     const t = { studyId, scenario: sc.name };
     const definition = JSON.parse(sc.body);
     const results: RunResult[] = [];
+    // An adaptive study's scenario used the seeds it stopped at.
+    const seeds = summary.scenarios.find((x) => x.position === sc.position)?.adaptive?.seedsUsed ?? study.seeds;
     try {
-      for (let i = 0; i < study.seeds; i++) {
+      for (let i = 0; i < seeds; i++) {
         results.push(runScenarioSeed(definition, recipe, studySeed(study.base_seed, sc.position, i)));
         runs++;
         await tick();
@@ -72,13 +75,13 @@ async function studyLines(db: Db, labId: string, studyId: string, lines: (Line &
       lines.push({ ...t, quantity: 'runs', values: study.seeds, verdict: 'changed', maxDifference: null, atHz: null, error: `a run fails on engine ${ENGINE_VERSION}: ${(err as Error).message}` });
       continue;
     }
-    const now = assembleStudy({ recipe, scenarios: [definition], seeds: study.seeds, baseSeed: study.base_seed + sc.position * SEED_STRIDE }, results).results[0]!;
+    const now = assembleStudy({ recipe, scenarios: [definition], seeds, baseSeed: study.base_seed + sc.position * SEED_STRIDE }, results).results[0]!;
     const fresh = new Map<string, Float64Array>();
     curvesOf(now.judged.aggregate, '', fresh);
     if (now.plain) curvesOf(now.plain.aggregate, 'plain.', fresh);
     const mine = new Map(storedCurves.filter((c) => c.scenario_id === sc.scenario_id).map((c) => [c.kind, blobToFloat64(c.data)]));
     const freqs = mine.get('frequenciesHz') ?? fresh.get('frequenciesHz');
-    for (const kind of [...new Set([...mine.keys(), ...fresh.keys()])].sort()) {
+    for (const kind of [...(mine.size ? mine : fresh).keys()].sort()) {
       const c = compareArrays(mine.get(kind) ?? new Float64Array(0), fresh.get(kind) ?? new Float64Array(0), REVERIFY_TOLERANCE);
       const hz = typeof c.at === 'number' && freqs && c.at < freqs.length ? freqs[c.at]! : null;
       lines.push(line(t, kind, c, hz));
@@ -87,10 +90,10 @@ async function studyLines(db: Db, labId: string, studyId: string, lines: (Line &
     const storedJudged = (stored?.judged ?? null) as Record<string, unknown> | null;
     const nowJudged = storedShape(now.judged);
     for (const part of ['pass', 'criteria', 'modes', 'figures'] as const) {
-      lines.push(line(t, part, compareTrees(storedJudged?.[part] ?? null, nowJudged[part], REVERIFY_TOLERANCE), null));
+      lines.push(line(t, part, compareTrees(storedJudged?.[part] ?? null, nowJudged[part], REVERIFY_TOLERANCE, { storedPathsOnly: true }), null));
     }
     if (stored?.plain || now.plain) {
-      lines.push(line(t, 'plain', compareTrees(stored?.plain ?? null, now.plain ? storedShape(now.plain) : null, REVERIFY_TOLERANCE), null));
+      lines.push(line(t, 'plain', compareTrees(stored?.plain ?? null, now.plain ? storedShape(now.plain) : null, REVERIFY_TOLERANCE, { storedPathsOnly: true }), null));
     }
   }
   return { engine: study.engine_version, runs };

@@ -52,6 +52,7 @@ export function studyView(row: StudyRow, scenarios: StudyScenarioRow[], live?: S
     scenarios: scenarios.map((s) => ({ id: s.scenario_id, version: s.scenario_version, name: s.name, position: s.position })),
     seeds: row.seeds,
     baseSeed: row.base_seed,
+    adaptive: row.adaptive ? (JSON.parse(row.adaptive) as Study['adaptive']) : null,
     progress: live && row.status === 'running' ? live : storedProgress(row, names),
     engineVersion: row.engine_version,
     pass: summary?.pass ?? null,
@@ -86,6 +87,7 @@ export async function startStudy(db: Db, queue: StudyQueue, labId: string, userI
       scenarios,
       seeds: body.seeds,
       baseSeed: body.baseSeed,
+      adaptive: body.adaptive,
       engineVersion: ENGINE_VERSION,
       createdBy: userId,
       at: Date.now(),
@@ -98,7 +100,7 @@ export async function startStudy(db: Db, queue: StudyQueue, labId: string, userI
       action: 'studies.start',
       targetType: 'study',
       targetId: studyId,
-      after: { name: body.name, recipe: { id: body.recipe.id, version: recipeVersion }, scenarios, seeds: body.seeds, baseSeed: body.baseSeed },
+      after: { name: body.name, recipe: { id: body.recipe.id, version: recipeVersion }, scenarios, seeds: body.seeds, baseSeed: body.baseSeed, adaptive: body.adaptive ?? null },
     });
     return studyId;
   });

@@ -10,7 +10,7 @@
  * summary JSON. A scenario with a failed run is not aggregated; the study then ends as failed
  * and its error names each failed run.
  */
-import type { ScenarioResult, StudyResults } from '@/shared/api/work';
+import type { AdaptiveOutcome, ScenarioResult, StudyResults } from '@/shared/api/work';
 import { blobToFloat64, float64ToBlob } from '../db/float-blob';
 import type { Db } from '../db/knex';
 import { findStudy, findStudyById, listCurves, listRuns, replaceCurves, studyScenarios, updateStudy, type CurveRow } from '../db/studies';
@@ -36,6 +36,8 @@ export interface StoredScenarioResult {
   warnings: { message: string; runs: number }[];
   judged: AssembledComparison | null;
   plain: AssembledComparison | null;
+  /** Adaptive studies: seeds used and why the scenario stopped. */
+  adaptive?: AdaptiveOutcome | null;
 }
 
 export interface StoredStudySummary {
@@ -54,6 +56,7 @@ export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler
   const recipe = JSON.parse(recipeRow!.body) as unknown;
   const scenarios = await studyScenarios(db, studyId);
   const runs = await listRuns(db, studyId, { withScores: true });
+  const adaptive = study.adaptive ? (JSON.parse(study.adaptive) as { batchSize: number; significantDigits: number }) : null;
   const curves: CurveRow[] = [];
   const results: StoredScenarioResult[] = [];
   const failures: string[] = [];
@@ -75,8 +78,11 @@ export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler
       judged: null,
       plain: null,
     };
-    if (failed.length > 0 || mine.length < study.seeds) {
-      if (mine.length < study.seeds) failures.push(`"${s.name}": ${study.seeds - mine.length} runs missing`);
+    // An adaptive scenario may stop before the maximum: it needs runs 0 … n − 1, n ≥ 1.
+    const expected = adaptive ? Math.max(1, mine.length) : study.seeds;
+    const gap = adaptive && mine.some((r, i) => r.seed_index !== i);
+    if (failed.length > 0 || mine.length < expected || gap) {
+      if (mine.length < expected || gap) failures.push(`"${s.name}": ${gap ? 'runs missing in the seed sequence' : `${expected - mine.length} runs missing`}`);
       results.push(base);
       continue;
     }
@@ -84,9 +90,10 @@ export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler
       recipe,
       scenario: JSON.parse(s.body),
       position: s.position,
-      seeds: study.seeds,
+      seeds: mine.length,
       baseSeed: study.base_seed,
       runs: mine.map((r) => new Uint8Array(r.line_scores!.buffer, r.line_scores!.byteOffset, r.line_scores!.byteLength)),
+      ...(adaptive ? { adaptive: { options: adaptive, maxSeeds: study.seeds } } : {}),
     });
     for (const c of assembled.curves) curves.push({ scenario_id: s.scenario_id, kind: c.kind, length: c.values.length, data: float64ToBlob(c.values) });
     results.push({
@@ -97,6 +104,7 @@ export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler
       warnings: assembled.warnings,
       judged: assembled.judged,
       plain: assembled.plain,
+      ...(assembled.adaptive ? { adaptive: adaptiveOutcome(assembled.adaptive) } : {}),
     });
   }
   const status = failures.length ? 'failed' : 'finished';
@@ -118,6 +126,11 @@ export async function finaliseStudy(db: Db, studyId: string, assemble: Assembler
     });
   });
   return { status, error };
+}
+
+/** The stored form of an adaptive scenario's stopping state (the state says stop by now). */
+export function adaptiveOutcome(state: NonNullable<AssembleOutcome['adaptive']>): AdaptiveOutcome {
+  return { seedsUsed: state.seeds, batches: state.batches, stop: state.stop ?? 'max-seeds', criteria: state.criteria };
 }
 
 const toArray = (a: Float64Array) => Array.from(a, (v) => (Number.isFinite(v) ? v : null));
@@ -154,6 +167,7 @@ export async function getStudyResults(db: Db, labId: string, id: string): Promis
       modes: (s.judged?.modes ?? []) as unknown as Record<string, unknown>[],
       curves,
       plain: s.plain ? { pass: s.plain.pass, criteria: s.plain.criteria, figures: s.plain.figures, modes: s.plain.modes as unknown as Record<string, unknown>[], curves: plainCurves } : null,
+      adaptive: s.adaptive ?? null,
     };
   });
   return { studyId: id, status: study.status, engineVersion: study.engine_version, pass: summary.pass, error: study.error, scenarios };

@@ -313,9 +313,18 @@ export const reportCriterionSchema = z.object({
   observed: z.number().nullable(),
   unit: z.string(),
   pass: z.boolean(),
-  /** "PASS" or "FAIL", so the result never rests on colour alone. */
-  verdict: z.enum(['PASS', 'FAIL']),
+  /** "PASS", "FAIL" or "CONDITIONAL" (rules with a conditional zone), so the result never rests on colour alone. */
+  verdict: z.enum(['PASS', 'FAIL', 'CONDITIONAL']),
   worstLineHz: z.number().nullable(),
+  /** The decision rule in words (absent for studies made before decision rules). */
+  rule: z.string().optional(),
+  /** Expanded Monte Carlo uncertainty U (k = 2) of the observed figure, guard band w, acceptance limit. */
+  expandedUncertainty: z.number().nullable().optional(),
+  guardBand: z.number().nullable().optional(),
+  acceptanceLimit: z.number().nullable().optional(),
+  /** From the bootstrap replicates of the figure: P(false accept) for a pass, P(false reject) for a fail. */
+  falseAcceptProbability: z.number().nullable().optional(),
+  falseRejectProbability: z.number().nullable().optional(),
 });
 
 export const reportContentSchema = z.object({
@@ -352,6 +361,8 @@ export const reportContentSchema = z.object({
           verdict: z.enum(['PASS', 'FAIL']),
           reference: z.string().nullable(),
           criteria: z.array(reportCriterionSchema),
+          /** Statement of conformity: the rule, the specification and the results it covers. */
+          conformity: z.string().optional(),
           figures: z.record(z.string(), z.number().nullable()),
           warnings: z.array(z.string()),
           plot: reportPlotSchema.nullable(),

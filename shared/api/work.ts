@@ -8,6 +8,8 @@
 import { z } from 'zod';
 import { id, millis, pageOf, paging, person } from './common';
 import { recipeSchema } from '@/shared/engine/recipe';
+import { adaptiveSchema } from '@/shared/engine/adaptive-stopping';
+import { decisionRuleSchema } from '@/shared/engine/scores/decision-rules';
 import { scenarioSchema } from '@/shared/engine/scenario';
 import { systemSpecSchema } from '@/shared/engine/systems/schema';
 import { preflightFindingSchema } from './preflight';
@@ -111,6 +113,15 @@ export const startStudySchema = z
     seeds: z.number().int().min(1).max(1000),
     /** The engine's seed rule: run r of the scenario at position j uses baseSeed + j·1000000 + r. */
     baseSeed: z.number().int().min(0).max(2 ** 40).default(1),
+    /**
+     * Adaptive seeds (JCGM 101 §7.9): batches of batchSize until every criterion's figure is stable
+     * to significantDigits of its limit; `seeds` is then the maximum per scenario.
+     */
+    adaptive: adaptiveSchema.optional(),
+  })
+  .refine((s) => !s.adaptive || s.adaptive.batchSize <= s.seeds, {
+    path: ['adaptive', 'batchSize'],
+    message: 'The batch may not hold more seeds than the maximum',
   })
   .refine((s) => new Set(s.scenarios.map((x) => x.id)).size === s.scenarios.length, {
     path: ['scenarios'],
@@ -146,6 +157,8 @@ export const studySchema = z.object({
   scenarios: z.array(z.object({ id: z.string(), version: z.number().int(), name: z.string(), position: z.number().int() })),
   seeds: z.number().int(),
   baseSeed: z.number().int(),
+  /** Adaptive seeds (seeds is then the maximum per scenario); null for a fixed number. */
+  adaptive: adaptiveSchema.nullable(),
   progress: studyProgressSchema,
   engineVersion: z.string(),
   /** All criteria of every scenario passed; null until the study has finished. */
@@ -188,7 +201,37 @@ export const criterionSchema = z.object({
   pass: z.boolean(),
   worstLineHz: z.number().nullable(),
   note: z.string().optional(),
+  /** Decision rule and Monte Carlo uncertainty (absent in studies made before decision rules). */
+  rule: decisionRuleSchema.optional(),
+  /** Standard uncertainty u (bootstrap over seeds, fixed seed) and U = 2u of the observed figure. */
+  uncertainty: z.number().nullable().optional(),
+  expandedUncertainty: z.number().nullable().optional(),
+  guardBand: z.number().nullable().optional(),
+  acceptanceLimit: z.number().nullable().optional(),
+  decision: z.enum(['pass', 'fail', 'conditional']).optional(),
+  falseAcceptProbability: z.number().nullable().optional(),
+  falseRejectProbability: z.number().nullable().optional(),
+  resamples: z.number().int().optional(),
 });
+export type CriterionResult = z.infer<typeof criterionSchema>;
+
+/** How an adaptive study's scenario stopped (JCGM 101 §7.9). */
+export const adaptiveOutcomeSchema = z.object({
+  seedsUsed: z.number().int(),
+  batches: z.number().int(),
+  stop: z.enum(['stable', 'max-seeds']),
+  criteria: z.array(
+    z.object({
+      id: z.string(),
+      batches: z.number().int(),
+      batchMean: z.number().nullable(),
+      batchMeanSd: z.number().nullable(),
+      tolerance: z.number().nullable(),
+      stable: z.boolean(),
+    }),
+  ),
+});
+export type AdaptiveOutcome = z.infer<typeof adaptiveOutcomeSchema>;
 
 const curve = z.array(z.number().nullable());
 
@@ -196,7 +239,10 @@ const curve = z.array(z.number().nullable());
 const comparisonSchema = z.object({
   pass: z.boolean(),
   criteria: z.array(criterionSchema),
-  /** seeds, lines, overallCoverage, overallPhaseCoverage, medianRandomErrorRatio. */
+  /**
+   * seeds, lines, overallCoverage, overallPhaseCoverage, medianRandomErrorRatio, and (newer studies)
+   * their Monte Carlo standard errors `<name>Se` and H1's exact-region coverage.
+   */
   figures: z.record(z.string(), z.number().nullable()),
   modes: z.array(z.record(z.string(), z.unknown())),
   /** Per-line statistics over seeds, each aligned with curves.frequenciesHz (the engine's names). */
@@ -216,6 +262,8 @@ export const scenarioResultSchema = comparisonSchema.extend({
   warnings: z.array(z.object({ message: z.string(), runs: z.number().int() })),
   /** Transient recipes: the comparison against the plain linear FRF, damping corrected. */
   plain: comparisonSchema.nullable(),
+  /** Adaptive studies: seeds used and why the scenario stopped; null otherwise. */
+  adaptive: adaptiveOutcomeSchema.nullable(),
 });
 export type ScenarioResult = z.infer<typeof scenarioResultSchema>;
 

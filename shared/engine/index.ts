@@ -12,6 +12,8 @@ export * from './detrend';
 export * from './welch';
 export * from './estimators';
 export * from './random-errors';
+export * from './f-distribution';
+export * from './exact-frf-region';
 export * from './recipe';
 export * from './transient';
 export * from './process';
@@ -31,8 +33,15 @@ export * from './scores/criteria';
 export * from './scores/resolution-bias';
 export * from './scores/windowed-reference';
 export * from './scores/expected-coherence';
+export * from './scores/monte-carlo-error';
+export * from './scores/monte-carlo-band';
+export * from './scores/bootstrap';
+export * from './scores/decision-figures';
+export * from './scores/decision-rules';
 
 export * from './study';
+export * from './adaptive-stopping';
+export * from './adaptive-study';
 export * from './advice';
 export * from './worker-run';
 

@@ -13,6 +13,7 @@ import { EngineInputError, requireFinite } from './errors';
 import { accumulateCrossSpectra, requireFiniteSamples, welchCrossSpectra, type CrossSpectra } from './welch';
 import { estimateFrf, type FrfEstimate } from './estimators';
 import { confidence95, type Confidence95 } from './random-errors';
+import { h1ExactRegionRadius } from './exact-frf-region';
 import { parseRecipe, resolveRecipe, type Recipe, type ResolvedRecipe } from './recipe';
 import { windowSamples } from './windows';
 import { addedDampingRatio, exponentialWindow, forceWindow, triggeredBlockStarts } from './transient';
@@ -33,6 +34,8 @@ export interface ProcessedFrf {
   bandIndices: { start: number; end: number };
   /** 95 % bands of the chosen estimate's magnitude and phase (random error only). */
   confidence95: Confidence95;
+  /** Radius of H1's exact 95 % confidence region (Goodman 1965; exact-frf-region.ts), FRF units. */
+  h1Region95Radius: Float64Array;
   /** Damping ratio the exponential window adds at f (transient recipes only). */
   addedDampingRatio?: (fHz: number) => number;
   /** Decay time τ of the exponential window, s (transient recipes only). */
@@ -76,6 +79,7 @@ export function processRecord(record: TwoChannelRecord, recipe: Recipe): Process
     chosen,
     bandIndices: resolved.bandIndices,
     confidence95: confidence95(magnitude, estimate.randomError.magnitude, estimate.randomError.phaseRad),
+    h1Region95Radius: h1ExactRegionRadius(estimate.h1, estimate.coherence, spectra.effectiveAverages),
     warnings,
   };
   if (exponentialTauS !== undefined) {

@@ -13,6 +13,7 @@ import type { WindowName } from './types';
 import { EngineInputError } from './errors';
 import { isPowerOfTwo } from './fft';
 import { MAX_KAISER_BETA, WINDOW_NAMES } from './windows';
+import { decisionRulesSchema } from './scores/decision-rules';
 
 /** Largest block length a recipe may ask for (2^24 samples). */
 export const MAX_BLOCK_LENGTH = 2 ** 24;
@@ -69,6 +70,8 @@ export const recipeSchema = z.strictObject({
     coveragePercent: z.number().gt(0, { error: 'must be in (0, 100]' }).lte(100, { error: 'must be in (0, 100]' }).optional(),
     minCoherence: z.number().min(0, { error: 'must be in [0, 1]' }).max(1, { error: 'must be in [0, 1]' }).optional(),
   }),
+  /** Decision rule per criterion id (scores/decision-rules.ts); simple acceptance where not given. */
+  decisionRules: decisionRulesSchema.optional(),
 });
 
 export type Recipe = z.infer<typeof recipeSchema>;

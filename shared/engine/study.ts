@@ -27,6 +27,9 @@ import { aggregateRuns, type MonteCarloAggregate, type SeedLineScores } from './
 import { aggregateModes, type ModeAggregate } from './scores/mode-aggregate';
 import { allPass, judgeCriteria, type Criterion } from './scores/criteria';
 import { exponentialWindowReference } from './scores/windowed-reference';
+import { decide, type DecidedCriterion } from './scores/decision-rules';
+import { decisionFigureOf, focusOf } from './scores/decision-figures';
+import { bootstrapIndices, BOOTSTRAP_RESAMPLES } from './scores/bootstrap';
 
 export const SEED_STRIDE = 1_000_000;
 export const SEED_RULE = 'seed = baseSeed + scenarioIndex·1000000 + run (both 0-based)';
@@ -85,6 +88,8 @@ export function runScenarioSeed(scenarioInput: Scenario | ScenarioInput, recipe:
   const coherence = processed.estimate.coherence.slice(start, end);
   const predicted = processed.estimate.randomError.magnitude.slice(start, end);
   const c95 = processed.confidence95;
+  const h1 = processed.estimate.h1;
+  const region = processed.h1Region95Radius;
   const band = { start: 0, end: f.length };
   const lowHz = f[0];
   const highHz = f[f.length - 1];
@@ -101,11 +106,15 @@ export function runScenarioSeed(scenarioInput: Scenario | ScenarioInput, recipe:
     const modeList = modeErrors({ frequenciesHz: f, estimate, modes, band, references, dampingCorrection });
     const inside = new Uint8Array(f.length);
     const insidePhase = new Uint8Array(f.length);
+    const insideRegion = new Uint8Array(f.length);
     for (let i = 0; i < f.length; i++) {
       const h = Math.hypot(exact.re[i], exact.im[i]);
       inside[i] = h >= c95.magnitudeLow[start + i] && h <= c95.magnitudeHigh[start + i] ? 1 : 0;
       const phaseRad = (Math.abs(score.phaseErrorDeg[i]) * Math.PI) / 180;
       insidePhase[i] = phaseRad <= c95.phaseHalfWidthRad[start + i] ? 1 : 0;
+      // H1's exact region is a disc about Ĥ1, whatever estimator the recipe judges.
+      const dist = Math.hypot(h1.re[start + i] - exact.re[i], h1.im[start + i] - exact.im[i]);
+      insideRegion[i] = dist <= region[start + i] ? 1 : 0;
     }
     const lines: SeedLineScores = {
       magnitudeErrorDb: score.magnitudeErrorDb,
@@ -115,6 +124,7 @@ export function runScenarioSeed(scenarioInput: Scenario | ScenarioInput, recipe:
       predictedMagnitudeError: predicted,
       insideMagnitudeBand: inside,
       insidePhaseBand: insidePhase,
+      insideExactRegion: insideRegion,
     };
     return {
       score,
@@ -198,7 +208,7 @@ export function planStudy(input: Pick<StudyInput, 'scenarios' | 'seeds' | 'baseS
 export interface ComparisonAggregate {
   aggregate: MonteCarloAggregate;
   modes: ModeAggregate[];
-  criteria: Criterion[];
+  criteria: DecidedCriterion[];
   pass: boolean;
 }
 
@@ -237,8 +247,25 @@ export interface StudyResult {
 function aggregateComparison(recipe: Recipe, list: Comparison[]): ComparisonAggregate {
   const aggregate = aggregateRuns(list[0].score.frequenciesHz, list.map((c) => c.lines));
   const modes = aggregateModes(list.map((c) => c.modes));
-  const criteria = judgeCriteria(recipe.tolerances, aggregate, modes);
+  const criteria = decideCriteria(recipe, judgeCriteria(recipe.tolerances, aggregate, modes), list, aggregate);
   return { aggregate, modes, criteria, pass: allPass(criteria) };
+}
+
+/**
+ * Each criterion's decision under the recipe's rule, with the bootstrap replicates of its decision
+ * figure (scores/decision-rules.ts; one shared set of resamples of the seeds, fixed seed).
+ */
+export function decideCriteria(recipe: Recipe, criteria: Criterion[], list: readonly Pick<Comparison, 'lines' | 'modes'>[], aggregate: MonteCarloAggregate): DecidedCriterion[] {
+  const S = list.length;
+  const resamples = S > 1 ? BOOTSTRAP_RESAMPLES : 0;
+  const idx = bootstrapIndices(S, resamples);
+  return criteria.map((c) => {
+    const figure = decisionFigureOf(c.id, list);
+    const focus = focusOf(c.id, aggregate);
+    const replicates = new Float64Array(resamples);
+    for (let b = 0; b < resamples; b++) replicates[b] = figure(idx.subarray(b * S, (b + 1) * S), focus);
+    return decide(c, replicates, recipe.decisionRules?.[c.id as keyof NonNullable<Recipe['decisionRules']>]);
+  });
 }
 
 /**
