@@ -35,3 +35,5 @@ export * from './scores/expected-coherence';
 export * from './study';
 export * from './advice';
 export * from './worker-run';
+export * from './sweep';
+export * from './sweep-result';
