@@ -112,7 +112,7 @@ function checkAxes(axes: readonly SweepAxis[]): void {
     if (!Array.isArray(axis.values) || axis.values.length < 1 || axis.values.length > MAX_SWEEP_VALUES) {
       throw new EngineInputError(field, axis.values, `needs 1 to ${MAX_SWEEP_VALUES} values`);
     }
-    const info: SweepSettingInfo = SWEEP_SETTINGS[axis.setting];
+    const info: SweepSettingInfo = SWEEP_SETTINGS[axis.setting as SweepSetting];
     for (const v of axis.values) {
       if (info.values === 'number' && !(typeof v === 'number' && Number.isFinite(v))) throw new EngineInputError(field, v, 'must be a number');
       if (info.values === 'integer-or-all' && v !== 'all' && !(typeof v === 'number' && Number.isInteger(v) && v >= 1)) {
@@ -124,7 +124,7 @@ function checkAxes(axes: readonly SweepAxis[]): void {
     }
     if (new Set(axis.values.map(String)).size !== axis.values.length) throw new EngineInputError(field, axis.values, 'lists a value twice');
   }
-  if (axes.filter((a) => SWEEP_SETTINGS[a.setting].kind === 'condition').length > 1) {
+  if (axes.filter((a) => SWEEP_SETTINGS[a.setting as SweepSetting].kind === 'condition').length > 1) {
     throw new EngineInputError('vary', axes.map((a) => a.setting).join(' and '), 'may hold at most one test condition (SNR or delay)');
   }
   if (seen.has('blockLength') && seen.has('frequencyResolutionHz')) {
