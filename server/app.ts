@@ -6,33 +6,28 @@ import fs from 'node:fs';
 import path from 'node:path';
 import express, { type ErrorRequestHandler, type Express } from 'express';
 import helmet from 'helmet';
-import type { Auth } from './auth/lucia';
-import { checkOrigin, loadSession } from './auth/middleware';
-import type { Config } from './config';
-import type { Db } from './db/knex';
+import { checkHost, checkOrigin, hostPolicy, loadSession } from './auth/middleware';
+import type { AppDeps } from './deps';
 import { AppError } from './errors';
 import type { Logger } from './logger';
 import { healthRoutes } from './routes/health';
 import { v1Routes } from './routes';
-import type { Mailer } from './mail/mailer';
-
-export interface AppDeps {
-  config: Config;
-  db: Db;
-  auth: Auth;
-  logger: Logger;
-  mailer: Mailer;
-  version: string;
-}
 
 export function createApp(deps: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', deps.config.trustProxy);
+  const hosts = hostPolicy(deps.config.publicUrl, deps.config.env);
+  app.use(checkHost(hosts, deps.config.publicUrl));
+  const https = deps.config.publicUrl.startsWith('https:');
   app.use(
     helmet({
+      // HSTS only means something over https; on plain HTTP it would pin a name to https.
+      strictTransportSecurity: https,
       contentSecurityPolicy: {
         directives: {
+          // Turning the bundle's http:// into https:// breaks a plain-HTTP server reached by name.
+          'upgrade-insecure-requests': https ? [] : null,
           'default-src': ["'self'"],
           'script-src': ["'self'", "'unsafe-inline'"],
           'style-src': ["'self'", "'unsafe-inline'"],
@@ -45,9 +40,14 @@ export function createApp(deps: AppDeps): Express {
   );
 
   const api = express.Router();
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store'); // answers carry a lab's data: never kept by a cache
+    next();
+  });
   api.use(express.json({ limit: '1mb' }));
+  api.use(refuseIllFormedText);
   api.use(loadSession(deps.auth, deps.config.session.absoluteHours));
-  api.use(checkOrigin(deps.config.publicUrl));
+  api.use(checkOrigin(hosts));
   api.use(healthRoutes(deps));
   api.use('/v1', v1Routes(deps));
   api.use((req) => {
@@ -58,6 +58,23 @@ export function createApp(deps: AppDeps): Express {
   serveWeb(app, deps.config.webDir);
   app.use(errorHandler(deps.logger));
   return app;
+}
+
+/** A lone UTF-16 surrogate (e.g. "\\ud800" in JSON) cannot be stored as UTF-8: refused, in words. */
+function refuseIllFormedText(req: express.Request, _res: express.Response, next: express.NextFunction) {
+  if (req.body !== undefined && hasLoneSurrogate(req.body)) {
+    throw new AppError(400, 'bad_text', 'The request contains text that is not valid Unicode (a lone surrogate character). Remove it and try again.');
+  }
+  next();
+}
+
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+function hasLoneSurrogate(value: unknown, depth = 0): boolean {
+  if (typeof value === 'string') return LONE_SURROGATE.test(value);
+  if (depth > 64 || value === null || typeof value !== 'object') return false;
+  if (Array.isArray(value)) return value.some((v) => hasLoneSurrogate(v, depth + 1));
+  return Object.entries(value).some(([k, v]) => LONE_SURROGATE.test(k) || hasLoneSurrogate(v, depth + 1));
 }
 
 function serveWeb(app: Express, webDir: string) {

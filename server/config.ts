@@ -8,6 +8,9 @@ import { z } from 'zod';
 const bool = z
   .enum(['true', 'false', '1', '0', 'yes', 'no'])
   .transform((v) => v === 'true' || v === '1' || v === 'yes');
+/** The demo password printed in the README: no account may keep it in production. */
+export const PUBLISHED_DEMO_PASSWORD = 'plumb-line-demo-2026';
+
 const port = z.coerce.number().int().min(0).max(65535);
 
 const envSchema = z.object({
@@ -26,14 +29,19 @@ const envSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().min(3).default('Plumbline <plumbline@harborridge.test>'),
-  FAKE_SMTP_PORT: port.default(2525),
-  DEMO_SEED: bool.default(true),
-  DEMO_PASSWORD: z.string().min(12, 'must be at least 12 characters').default('plumb-line-demo-2026'),
+  // Unset: a free port is taken, so two instances on one machine never collide (printed at start).
+  FAKE_SMTP_PORT: port.default(0),
+  // Unset: on in development and test, off in production (the demo password is published).
+  DEMO_SEED: bool.optional(),
+  DEMO_PASSWORD: z.string().min(12, 'must be at least 12 characters').default(PUBLISHED_DEMO_PASSWORD),
   STUDY_WORKERS: z.coerce.number().int().min(1).max(16).default(2),
   // Heap limit of each study worker thread, MB; unset = V8's default. Below about 96 MB a worker
   // that hits it can abort the whole process instead of failing its run (docs/reliability.md).
   STUDY_WORKER_HEAP_MB: z.coerce.number().int().min(96).max(65536).optional(),
   WEB_DIR: z.string().min(1).default('dist/web'),
+  // Behind a reverse proxy: which proxies' X-Forwarded-For to believe (Express's "trust proxy":
+  // a hop count, "loopback", or addresses). Unset: none, so a client cannot choose its own address.
+  TRUST_PROXY: z.string().min(1).optional(),
 });
 
 export interface Config {
@@ -52,6 +60,8 @@ export interface Config {
     fakePort: number;
   };
   demo: { seed: boolean; password: string };
+  /** Express "trust proxy" value; false unless TRUST_PROXY is set. */
+  trustProxy: boolean | number | string;
   studyWorkers: number;
   /** Old-generation heap limit of each study worker thread, MB; null = V8's default. */
   studyWorkerHeapMb: number | null;
@@ -85,9 +95,17 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     logLevel: e.LOG_LEVEL,
     session: { idleHours: e.SESSION_IDLE_HOURS, absoluteHours: e.SESSION_ABSOLUTE_HOURS },
     mail: { from: e.MAIL_FROM, smtp, fakePort: e.FAKE_SMTP_PORT },
-    demo: { seed: e.DEMO_SEED, password: e.DEMO_PASSWORD },
+    demo: { seed: e.DEMO_SEED ?? e.NODE_ENV !== 'production', password: e.DEMO_PASSWORD },
+    trustProxy: trustProxyValue(e.TRUST_PROXY),
     studyWorkers: e.STUDY_WORKERS,
     studyWorkerHeapMb: e.STUDY_WORKER_HEAP_MB ?? null,
     webDir: path.resolve(cwd, e.WEB_DIR),
   };
+}
+
+/** TRUST_PROXY as Express reads it: "true"/"false", a hop count, or a list of addresses/names. */
+function trustProxyValue(v: string | undefined): boolean | number | string {
+  if (v === undefined || v === 'false') return false;
+  if (v === 'true') return true;
+  return /^\d+$/.test(v) ? Number(v) : v;
 }

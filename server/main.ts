@@ -26,7 +26,9 @@ async function main() {
   const demo = config.demo.seed
     ? `\n  Demo sign-in: ${DEMO_USERS.map((u) => u.email).join(', ')}\n  Demo password: ${config.demo.password}`
     : '';
-  const mail = running.fakeSmtp ? `\n  Mail goes to the local fake SMTP server on port ${running.fakeSmtp.port}.` : '';
+  const mail = running.fakeSmtp
+    ? `\n  Mail goes to the local fake SMTP server on port ${running.fakeSmtp.port}; each message is also written to ${path.join(config.dataDir, 'fake-mail')}.`
+    : `\n  Mail goes to ${config.mail.smtp?.host}:${config.mail.smtp?.port}.`;
   console.log(`\nPlumbline is running at ${running.url}\n  Database: ${config.databaseFile}${demo}${mail}\n`);
 
   const stop = (signal: string) => {

@@ -3,6 +3,7 @@
  * mail (fake SMTP unless a real relay is configured) and HTTP. Used by main.ts and the tests.
  */
 import http from 'node:http';
+import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { createApp } from './app';
 import { createAuth } from './auth/lucia';
@@ -13,6 +14,7 @@ import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp';
 import { createMailer, type Mailer } from './mail/mailer';
 import { createPoolExecutor } from './jobs/pool';
 import { createStudyScheduler, type StudyScheduler } from './jobs/scheduler';
+import { checkProductionSafety } from './services/production-checks';
 import { startReviewReminders } from './services/review-reminders';
 import { seedDemoLab } from './seed/demo-lab';
 import { seedDemoWork } from './seed/demo-work';
@@ -31,11 +33,17 @@ export interface RunningServer {
 export async function startServer(config: Config, logger = createLogger(config.logLevel)): Promise<RunningServer> {
   const db = createDb(config.databaseFile);
   await migrate(db);
+  try {
+    await checkProductionSafety(db, config);
+  } catch (err) {
+    await db.destroy();
+    throw err;
+  }
   if (config.demo.seed && (await seedDemoLab(db, config.demo.password))) logger.info('demo lab seeded');
   // The demo study is computed here (about a second); test servers leave it out (seed/demo-work.ts).
   if (config.demo.seed && (await seedDemoWork(db, { withStudy: config.env !== 'test' }))) logger.info('demo work seeded');
 
-  const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.fakePort);
+  const fakeSmtp = config.mail.smtp ? null : await startFakeSmtp(config.mail.fakePort, { saveDir: config.env === 'test' ? null : path.join(config.dataDir, 'fake-mail'), logger });
   const smtp = config.mail.smtp ?? { host: '127.0.0.1', port: fakeSmtp!.port, secure: false };
   const mailer = createMailer({ db, logger }, smtp, config.mail.from);
 

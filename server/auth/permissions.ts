@@ -7,7 +7,7 @@
  *   labRoute(r, deps.db, {
  *     method: 'get', path: '/labs/:labId/systems', action: 'systems.read',
  *     summary: 'List the systems of a lab', query: systemListQuerySchema, response: systemListSchema,
- *   }, async (req, res) => { ... req.lab!.id, req.lab!.role, req.user!.id ... });
+ *   }, async (req, res) => { ... req.lab.id, req.lab.role, req.user.id ... });
  *
  * and mount the router in server/routes/index.ts with `r.use(yourRoutes(deps))` and NO path prefix,
  * so that the path registered here is the path Express serves (a test compares the two).
@@ -19,11 +19,15 @@
  *   (so nothing of one lab is visible from another, not even that it exists); 403 when the user's
  *   role in that lab lacks the action. Otherwise it sets `req.lab = { id, role }` and continues.
  *
+ * Handlers of a lab route are typed `LabHandler`: `req.lab` and `req.user` are there (no `!`);
+ * handlers of a 'signed-in' route are `SignedInHandler` (`req.user` is there).
+ *
  * Every registration lands in `routeRegistry` (method + path → spec), which the OpenAPI document
  * (server/openapi.ts) and the route × role test read. Registration is idempotent, so building the
  * app twice (tests) does not duplicate entries.
  */
 import type { NextFunction, Request, RequestHandler, Response, Router } from 'express';
+import type { User } from 'lucia';
 import type { z } from 'zod';
 import type { Role } from '@/shared/api/auth';
 import type { Db } from '../db/knex';
@@ -91,11 +95,45 @@ export function can(role: Role, action: Action): boolean {
   return (PERMISSIONS[action] as readonly Role[]).includes(role);
 }
 
+/** The lab of the path and the signed-in user's role in it. */
+export interface LabAccess {
+  id: string;
+  role: Role;
+}
+
 declare module 'express-serve-static-core' {
   interface Request {
-    /** Set by requireLabRole: the lab of the path and the signed-in user's role in it. */
-    lab?: { id: string; role: Role };
+    /** Set by requireLabRole. Lab route handlers see it as present (LabRequest). */
+    lab?: LabAccess;
   }
+}
+
+/** A request that passed requireLabRole: signed in and a member of the lab of the path. */
+export type LabRequest = Request & { lab: LabAccess; user: User };
+/** A request that passed requireUser. */
+export type SignedInRequest = Request & { user: User };
+export type LabHandler = (req: LabRequest, res: Response, next: NextFunction) => unknown;
+export type SignedInHandler = (req: SignedInRequest, res: Response, next: NextFunction) => unknown;
+
+/**
+ * Adapts a lab handler to Express. requireLabRole runs first, so lab and user are set; the check
+ * narrows the type without a cast and turns a wiring mistake into a loud 500 instead of a
+ * handler reading `undefined`.
+ */
+function asLabHandler(handler: LabHandler): RequestHandler {
+  return (req, res, next) => {
+    const { lab, user } = req;
+    if (!lab || !user) throw new Error(`${req.method} ${req.path}: lab handler reached without requireLabRole`);
+    return handler(Object.assign(req, { lab, user }), res, next);
+  };
+}
+
+function asSignedInHandler(handler: SignedInHandler): RequestHandler {
+  return (req, res, next) => {
+    const { user } = req;
+    if (!user) throw unauthorised();
+    return handler(Object.assign(req, { user }), res, next);
+  };
 }
 
 /** The answer for a lab that does not exist and for one the user is not a member of: the same. */
@@ -145,32 +183,32 @@ function register(spec: RouteSpec) {
   routeRegistry.set(key, spec);
 }
 
-/** Finds the registered spec of a mounted route. */
-export function findRoute(method: string, path: string): RouteSpec | undefined {
-  return routeRegistry.get(routeKey(method, path));
-}
-
 /** Registers and mounts a lab-scoped route behind requireLabRole(db, spec.action). */
 export function labRoute(
   router: Router,
   db: Db,
   spec: RouteSpec & { action: Action },
-  ...handlers: RequestHandler[]
+  ...handlers: LabHandler[]
 ): void {
   if (!spec.path.startsWith('/labs/:labId')) throw new Error(`labRoute ${spec.path} must start with /labs/:labId`);
   register({ tag: tagOf(spec.path), ...spec });
-  router[spec.method](spec.path, requireLabRole(db, spec.action), ...jsonOnly(spec), ...handlers);
+  router[spec.method](spec.path, requireLabRole(db, spec.action), ...jsonOnly(spec), ...handlers.map(asLabHandler));
 }
 
 /** Registers and mounts a route outside a lab: 'public', or 'signed-in' (401 without a session). */
+export function openRoute(router: Router, spec: RouteSpec & { action: 'signed-in' }, ...handlers: SignedInHandler[]): void;
+export function openRoute(router: Router, spec: RouteSpec & { action: 'public' }, ...handlers: RequestHandler[]): void;
 export function openRoute(
   router: Router,
   spec: RouteSpec & { action: 'public' | 'signed-in' },
-  ...handlers: RequestHandler[]
+  ...handlers: (RequestHandler | SignedInHandler)[]
 ): void {
   register({ tag: tagOf(spec.path), ...spec });
-  if (spec.action === 'signed-in') router[spec.method](spec.path, requireUser, ...jsonOnly(spec), ...handlers);
-  else router[spec.method](spec.path, ...jsonOnly(spec), ...handlers);
+  if (spec.action === 'signed-in') {
+    router[spec.method](spec.path, requireUser, ...jsonOnly(spec), ...(handlers as SignedInHandler[]).map(asSignedInHandler));
+  } else {
+    router[spec.method](spec.path, ...jsonOnly(spec), ...(handlers as RequestHandler[]));
+  }
 }
 
 /**

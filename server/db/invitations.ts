@@ -47,14 +47,19 @@ export async function revokeInvitationRow(db: Db, id: string, now: number): Prom
 }
 
 /** Spends the invitation; false when it was already used, revoked or has expired. */
-export async function spendInvitation(db: Db, id: string, userId: string, now: number): Promise<boolean> {
+/** Marks an open invitation used; false when another request spent, revoked or outlived it first. */
+export async function claimInvitation(db: Db, id: string, now: number): Promise<boolean> {
   const n = await db('invitations')
     .where({ id })
     .whereNull('used_at')
     .whereNull('revoked_at')
     .where('expires_at', '>', now)
-    .update({ used_at: now, accepted_user_id: userId });
+    .update({ used_at: now });
   return n === 1;
+}
+
+export async function setInvitationAcceptedUser(db: Db, id: string, userId: string): Promise<void> {
+  await db('invitations').where({ id }).update({ accepted_user_id: userId });
 }
 
 export type InvitationStatus = 'pending' | 'accepted' | 'revoked' | 'expired';
@@ -111,4 +116,9 @@ export async function spendPasswordReset(db: Db, row: PasswordResetRow, now: num
   if (n !== 1) return false;
   await db('password_resets').where({ user_id: row.user_id }).whereNull('used_at').update({ used_at: now });
   return true;
+}
+
+/** Ends every open reset link of a user (a newer request replaces them); returns how many. */
+export function closeOpenPasswordResets(db: Db, userId: string, now: number): Promise<number> {
+  return db('password_resets').where({ user_id: userId }).whereNull('used_at').where('expires_at', '>', now).update({ used_at: now });
 }

@@ -15,6 +15,9 @@ export function createDb(file: string): Db {
     client: 'better-sqlite3',
     connection: { filename: file },
     useNullAsDefault: true,
+    // A failed query's message keeps its placeholders (?) instead of the bound values, so an
+    // error log never carries a password hash, a token or a person's data.
+    compileSqlOnError: false,
     pool: {
       min: 1,
       max: 1,

@@ -52,3 +52,8 @@ export async function addMembership(db: Db, m: { labId: string; userId: string; 
 export function findUserById(db: Db, id: string): Promise<UserRow | undefined> {
   return db('users').where({ id }).whereNull('disabled_at').first();
 }
+
+/** Every account's e-mail and password hash (the production start-up check reads them). */
+export function listPasswordHashes(db: Db): Promise<{ email: string; password_hash: string | null }[]> {
+  return db('users').select('email', 'password_hash');
+}

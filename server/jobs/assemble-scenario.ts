@@ -6,6 +6,7 @@
  * event loop for a large study); the demo seed runs it in-thread. Relative imports only (workers).
  */
 import { parseRecipe } from '../../shared/engine/recipe';
+import { parseScenario } from '../../shared/engine/scenario';
 import type { MonteCarloAggregate } from '../../shared/engine/scores/monte-carlo';
 import { assembleStudy, SEED_STRIDE, type ComparisonAggregate, type RunResult } from '../../shared/engine/study';
 import { unpackValue } from '../db/float-blob';
@@ -66,7 +67,7 @@ export function assembleScenarioTask(task: AssembleTask): AssembleOutcome {
   const r = assembleStudy(
     {
       recipe: parseRecipe(task.recipe),
-      scenarios: [task.scenario as never],
+      scenarios: [parseScenario(task.scenario)],
       seeds: task.seeds,
       // Run r of the scenario at position j has seed base + j·STRIDE + r: as a one-scenario
       // study, that is base' = base + j·STRIDE.

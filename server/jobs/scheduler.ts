@@ -53,13 +53,6 @@ export const STUDY_JOB = 'study';
 /** A sweep study (sweep-runner.ts): the same queue, pool, progress events and resumption. */
 export const SWEEP_JOB = 'sweep';
 
-declare module '../app' {
-  interface AppDeps {
-    /** Background studies; absent when the server runs without a scheduler. */
-    studyQueue?: StudyQueue;
-  }
-}
-
 export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
   const events = new EventEmitter();
   events.setMaxListeners(0);

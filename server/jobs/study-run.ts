@@ -6,6 +6,7 @@
  * relative imports only, so nothing depends on the main thread's module aliases.
  */
 import { parseRecipe } from '../../shared/engine/recipe';
+import { parseScenario } from '../../shared/engine/scenario';
 import { runScenarioSeed, type RunResult } from '../../shared/engine/study';
 import { packValue } from '../db/float-blob';
 import type { RunOutcome, RunTask } from './run-task';
@@ -41,7 +42,7 @@ export function runSummary(r: RunResult): Record<string, unknown> {
 export function runStudyTask(task: RunTask): RunOutcome {
   const startedAt = Date.now();
   try {
-    const result = runScenarioSeed(task.scenario as never, parseRecipe(task.recipe), task.seed);
+    const result = runScenarioSeed(parseScenario(task.scenario), parseRecipe(task.recipe), task.seed);
     const packed = packValue(result);
     return { ok: true, summary: runSummary(result), lineScores: new Uint8Array(packed.buffer, packed.byteOffset, packed.byteLength), startedAt, finishedAt: Date.now() };
   } catch (err) {

@@ -1,7 +1,7 @@
 /** The audit trail of a lab: list (filtered, paged), chain verification and CSV export. */
 import { Router } from 'express';
 import { auditListQuerySchema, auditListSchema, auditVerifySchema, type AuditEvent } from '@/shared/api/people';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { chainRows, listAudit, type AuditRow } from '../db/audit';
 import { verifyAuditChain } from '../services/audit';
@@ -43,7 +43,7 @@ export function auditRoutes(deps: AppDeps): Router {
     const q = parseBody(auditListQuerySchema, req.query);
     const { rows, total } = await listAudit(
       db,
-      { labId: req.lab!.id, action: q.action, actorUserId: q.actor, from: bound(q.from, false), to: bound(q.to, true) },
+      { labId: req.lab.id, action: q.action, actorUserId: q.actor, from: bound(q.from, false), to: bound(q.to, true) },
       q,
     );
     res.json({ items: rows.map(toEvent), total, limit: q.limit, offset: q.offset });
@@ -52,20 +52,20 @@ export function auditRoutes(deps: AppDeps): Router {
     method: 'get', path: '/labs/:labId/audit/verify', action: 'audit.read',
     summary: "Recompute the lab's hash chain and report the first broken link", response: auditVerifySchema,
   }, async (req, res) => {
-    res.json(await verifyAuditChain(db, req.lab!.id));
+    res.json(await verifyAuditChain(db, req.lab.id));
   });
   labRoute(r, db, {
     method: 'get', path: '/labs/:labId/audit/export', action: 'audit.export',
     summary: "The lab's whole audit trail as CSV, oldest first, with the hashes", produces: 'text/csv',
   }, async (req, res) => {
-    const rows = await chainRows(db, req.lab!.id);
+    const rows = await chainRows(db, req.lab.id);
     const head = ['id', 'at_iso', 'actor_user_id', 'action', 'target_type', 'target_id', 'before_json', 'after_json', 'prev_hash', 'hash'];
     const lines = rows.map((e) =>
       [Number(e.id), new Date(Number(e.at)).toISOString(), e.actor_user_id, e.action, e.target_type, e.target_id, e.before_json, e.after_json, e.prev_hash, e.hash]
         .map(csvCell)
         .join(','),
     );
-    res.type('text/csv').attachment(`audit-${req.lab!.id}.csv`).send([head.join(','), ...lines].join('\r\n') + '\r\n');
+    res.type('text/csv').attachment(`audit-${req.lab.id}.csv`).send([head.join(','), ...lines].join('\r\n') + '\r\n');
   });
   return r;
 }

@@ -4,10 +4,10 @@ import { openRoute } from '../auth/permissions';
 import type { Auth } from '../auth/lucia';
 import type { Db } from '../db/knex';
 import { recordAudit } from '../services/audit';
-import { describeUser, signIn, type AttemptLimiter } from '../services/sign-in';
+import { describeUser, signIn } from '../services/sign-in';
 import { parseBody } from './parse';
 
-export function authRoutes(deps: { db: Db; auth: Auth; limiter: AttemptLimiter }): Router {
+export function authRoutes(deps: { db: Db; auth: Auth }): Router {
   const r = Router();
   openRoute(r, {
     method: 'post', path: '/auth/sign-in', action: 'public',
@@ -38,7 +38,7 @@ export function authRoutes(deps: { db: Db; auth: Auth; limiter: AttemptLimiter }
   openRoute(r, {
     method: 'get', path: '/me', action: 'signed-in', summary: 'The signed-in user, with their labs and roles', response: meResponseSchema,
   }, async (req, res) => {
-    res.json(await describeUser(deps.db, req.user!.id));
+    res.json(await describeUser(deps.db, req.user.id));
   });
   return r;
 }

@@ -6,7 +6,7 @@
 import { Router, type Response } from 'express';
 import { z } from 'zod';
 import { exactExportQuerySchema, signalsExportQuerySchema } from '@/shared/api/work';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { formatCsvCell } from '../services/csv-format';
 import { scenarioExact, scenarioSignals, scenarioSignalsWav, studyCriteriaCsv, studyResultsCsv, type CsvExport } from '../services/exports';
@@ -36,10 +36,10 @@ export function exportRoutes(deps: AppDeps): Router {
   const r = Router();
   const lab = '/labs/:labId';
   labRoute(r, deps.db, { method: 'get', path: `${lab}/scenarios/:id/signals.csv`, action: 'exports.read', summary: "A scenario's force and response signals for one seed (CSV)", query: signalsExportQuerySchema, produces: 'text/csv' }, async (req, res) => {
-    await sendCsv(res, await scenarioSignals(deps.db, req.lab!.id, parseBody(idParam, req.params).id, parseBody(signalsExportQuerySchema, req.query)));
+    await sendCsv(res, await scenarioSignals(deps.db, req.lab.id, parseBody(idParam, req.params).id, parseBody(signalsExportQuerySchema, req.query)));
   });
   labRoute(r, deps.db, { method: 'get', path: `${lab}/scenarios/:id/signals.wav`, action: 'exports.read', summary: "A scenario's force and response signals for one seed (2-channel 32-bit float WAV; each channel scaled by its peak, scales in the X-Channel-Scales header and the file's comment)", query: signalsExportQuerySchema, produces: 'audio/wav' }, async (req, res) => {
-    const wav = await scenarioSignalsWav(deps.db, req.lab!.id, parseBody(idParam, req.params).id, parseBody(signalsExportQuerySchema, req.query));
+    const wav = await scenarioSignalsWav(deps.db, req.lab.id, parseBody(idParam, req.params).id, parseBody(signalsExportQuerySchema, req.query));
     res.setHeader('Content-Type', 'audio/wav');
     res.setHeader('Content-Disposition', `attachment; filename="${wav.filename}"`);
     res.setHeader('Cache-Control', 'no-store');
@@ -48,13 +48,13 @@ export function exportRoutes(deps: AppDeps): Router {
     res.end(wav.bytes);
   });
   labRoute(r, deps.db, { method: 'get', path: `${lab}/scenarios/:id/exact.csv`, action: 'exports.read', summary: "A scenario's exact FRF (CSV)", query: exactExportQuerySchema, produces: 'text/csv' }, async (req, res) => {
-    await sendCsv(res, await scenarioExact(deps.db, req.lab!.id, parseBody(idParam, req.params).id, parseBody(exactExportQuerySchema, req.query)));
+    await sendCsv(res, await scenarioExact(deps.db, req.lab.id, parseBody(idParam, req.params).id, parseBody(exactExportQuerySchema, req.query)));
   });
   labRoute(r, deps.db, { method: 'get', path: `${lab}/studies/:id/results.csv`, action: 'exports.read', summary: "A study's per-line results over seeds (CSV)", produces: 'text/csv' }, async (req, res) => {
-    await sendCsv(res, await studyResultsCsv(deps.db, req.lab!.id, parseBody(idParam, req.params).id));
+    await sendCsv(res, await studyResultsCsv(deps.db, req.lab.id, parseBody(idParam, req.params).id));
   });
   labRoute(r, deps.db, { method: 'get', path: `${lab}/studies/:id/criteria.csv`, action: 'exports.read', summary: "A study's criteria and verdicts (CSV)", produces: 'text/csv' }, async (req, res) => {
-    await sendCsv(res, await studyCriteriaCsv(deps.db, req.lab!.id, parseBody(idParam, req.params).id));
+    await sendCsv(res, await studyCriteriaCsv(deps.db, req.lab.id, parseBody(idParam, req.params).id));
   });
   return r;
 }

@@ -2,8 +2,7 @@
  * Every /api/v1 route, mounted in one place. Add a resource by adding one line here.
  */
 import { Router } from 'express';
-import type { AppDeps } from '../app';
-import { AttemptLimiter } from '../services/sign-in';
+import type { AppDeps } from '../deps';
 import { auditRoutes } from './audit';
 import { authRoutes } from './auth';
 import { invitationRoutes } from './invitations';
@@ -25,7 +24,7 @@ import { exportRoutes } from './exports';
 
 export function v1Routes(deps: AppDeps): Router {
   const r = Router();
-  r.use(authRoutes({ ...deps, limiter: new AttemptLimiter() }));
+  r.use(authRoutes(deps));
   r.use(passwordResetRoutes(deps));
   r.use(invitationRoutes(deps));
   r.use(labRoutes(deps));

@@ -5,7 +5,7 @@ import {
   acceptInvitationRequestSchema, createInvitationRequestSchema, invitationListQuerySchema, invitationListSchema,
   invitationPreviewSchema, invitationSchema,
 } from '@/shared/api/people';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute, openRoute } from '../auth/permissions';
 import { acceptInvitation, createInvitation, listLabInvitations, previewInvitation, revokeInvitation } from '../services/invitations';
 import { describeUser } from '../services/sign-in';
@@ -22,7 +22,7 @@ export function invitationRoutes(deps: AppDeps): Router {
     const input = parseBody(createInvitationRequestSchema, req.body);
     const invitation = await createInvitation(
       { db, mailer: deps.mailer, publicUrl: deps.config.publicUrl },
-      { labId: req.lab!.id, email: input.email, role: input.role, inviterId: req.user!.id },
+      { labId: req.lab.id, email: input.email, role: input.role, inviterId: req.user.id },
     );
     res.status(201).json(invitation);
   });
@@ -30,13 +30,13 @@ export function invitationRoutes(deps: AppDeps): Router {
     method: 'get', path: '/labs/:labId/invitations', action: 'invitations.read',
     summary: "List the lab's invitations, newest first", query: invitationListQuerySchema, response: invitationListSchema,
   }, async (req, res) => {
-    res.json(await listLabInvitations(db, req.lab!.id, parseBody(invitationListQuerySchema, req.query)));
+    res.json(await listLabInvitations(db, req.lab.id, parseBody(invitationListQuerySchema, req.query)));
   });
   labRoute(r, db, {
     method: 'delete', path: '/labs/:labId/invitations/:invitationId', action: 'invitations.revoke',
     summary: 'Revoke a pending invitation', status: 204,
   }, async (req, res) => {
-    await revokeInvitation(db, { labId: req.lab!.id, id: String(req.params.invitationId), actorUserId: req.user!.id });
+    await revokeInvitation(db, { labId: req.lab.id, id: String(req.params.invitationId), actorUserId: req.user.id });
     res.status(204).end();
   });
   openRoute(r, {

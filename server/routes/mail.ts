@@ -1,7 +1,7 @@
 /** The lab's sent mail (the outbox), readable by an admin while the local fake SMTP server is in use. */
 import { Router } from 'express';
 import { mailListQuerySchema, mailListSchema, type MailMessage } from '@/shared/api/people';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { listLabMail } from '../db/members';
 import { AppError } from '../errors';
@@ -18,7 +18,7 @@ export function mailRoutes(deps: AppDeps): Router {
       throw new AppError(409, 'mail_view_off', 'Mail goes to a real SMTP server; read it in the recipients\' mailboxes.');
     }
     const page = parseBody(mailListQuerySchema, req.query);
-    const { rows, total } = await listLabMail(deps.db, req.lab!.id, page);
+    const { rows, total } = await listLabMail(deps.db, req.lab.id, page);
     const items: MailMessage[] = rows.map((m) => ({
       id: Number(m.id), to: m.to_address, subject: m.subject, text: m.body_text, kind: m.kind, status: m.status,
       error: m.error ?? null, createdAt: Number(m.created_at), sentAt: m.sent_at === null ? null : Number(m.sent_at),

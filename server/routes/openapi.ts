@@ -1,6 +1,6 @@
 /** GET /api/v1/openapi.json: the API document, built once from the registry on first request. */
 import { Router } from 'express';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { openRoute, routeRegistry } from '../auth/permissions';
 import { buildOpenApiDocument } from '../openapi';
 

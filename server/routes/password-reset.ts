@@ -1,14 +1,13 @@
 /** Password reset by mail: /api/v1/auth/password-reset and /api/v1/auth/password-reset/confirm. */
 import { Router } from 'express';
 import { passwordResetAnswerSchema, passwordResetConfirmSchema, passwordResetRequestSchema } from '@/shared/api/people';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { openRoute } from '../auth/permissions';
 import { confirmPasswordReset, requestPasswordReset } from '../services/password-reset';
-import { AttemptLimiter } from '../services/sign-in';
 import { parseBody } from './parse';
 
-/** Reset requests share the sign-in limiter's rules: per address and per client within 15 minutes. */
-export function passwordResetRoutes(deps: AppDeps, resetLimiter = new AttemptLimiter()): Router {
+/** Reset requests are limited per address and per client within 15 minutes (attempt-limits.ts). */
+export function passwordResetRoutes(deps: AppDeps): Router {
   const r = Router();
   openRoute(r, {
     method: 'post', path: '/auth/password-reset', action: 'public', status: 202,
@@ -17,7 +16,7 @@ export function passwordResetRoutes(deps: AppDeps, resetLimiter = new AttemptLim
   }, async (req, res) => {
     const { email } = parseBody(passwordResetRequestSchema, req.body);
     const answer = await requestPasswordReset(
-      { db: deps.db, auth: deps.auth, mailer: deps.mailer, logger: deps.logger, publicUrl: deps.config.publicUrl, resetLimiter },
+      { db: deps.db, auth: deps.auth, mailer: deps.mailer, logger: deps.logger, publicUrl: deps.config.publicUrl },
       email,
       { ip: req.ip ?? 'unknown' },
     );

@@ -5,7 +5,7 @@
 import { Router, type Response } from 'express';
 import { z } from 'zod';
 import { reportRecordSchema, reportSchema } from '@/shared/api/approval';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { getReportRecord, makeReport, makeReportPdf, type ReportKind } from '../services/reports';
 import { parseBody } from './parse';
@@ -22,19 +22,19 @@ export function reportRoutes(deps: Pick<AppDeps, 'db'>): Router {
   };
   // The .pdf routes come first: ':id' alone would also match "x.pdf".
   labRoute(r, db, { method: 'get', path: '/labs/:labId/reports/study/:id.pdf', action: 'reports.read', summary: "A study's validation report as PDF", produces: 'application/pdf' }, async (req, res) => {
-    await sendPdf(res, req.lab!.id, req.user!.id, 'study', parseBody(idParam, req.params).id);
+    await sendPdf(res, req.lab.id, req.user.id, 'study', parseBody(idParam, req.params).id);
   });
   labRoute(r, db, { method: 'get', path: '/labs/:labId/reports/study/:id', action: 'reports.read', summary: "A study's validation report (content for the printable page)", response: reportSchema }, async (req, res) => {
-    res.json(await makeReport(db, req.lab!.id, req.user!.id, 'study', parseBody(idParam, req.params).id));
+    res.json(await makeReport(db, req.lab.id, req.user.id, 'study', parseBody(idParam, req.params).id));
   });
   labRoute(r, db, { method: 'get', path: '/labs/:labId/standards/:id/report.pdf', action: 'reports.read', summary: "A standard's validation report as PDF", produces: 'application/pdf' }, async (req, res) => {
-    await sendPdf(res, req.lab!.id, req.user!.id, 'standard', parseBody(idParam, req.params).id);
+    await sendPdf(res, req.lab.id, req.user.id, 'standard', parseBody(idParam, req.params).id);
   });
   labRoute(r, db, { method: 'get', path: '/labs/:labId/standards/:id/report', action: 'reports.read', summary: "A standard's validation report (content for the printable page)", response: reportSchema }, async (req, res) => {
-    res.json(await makeReport(db, req.lab!.id, req.user!.id, 'standard', parseBody(idParam, req.params).id));
+    res.json(await makeReport(db, req.lab.id, req.user.id, 'standard', parseBody(idParam, req.params).id));
   });
   labRoute(r, db, { method: 'get', path: '/labs/:labId/reports/:id', action: 'reports.read', summary: 'A registered report by id: its kind, target, sha256 and creation', response: reportRecordSchema }, async (req, res) => {
-    res.json(await getReportRecord(db, req.lab!.id, parseBody(idParam, req.params).id));
+    res.json(await getReportRecord(db, req.lab.id, parseBody(idParam, req.params).id));
   });
   return r;
 }

@@ -2,7 +2,7 @@
  * /labs/:labId/studies: start (202, runs in the background), list, read with progress, runs,
  * results, progress as server-sent events, cancel.
  */
-import { Router, type Request, type Response } from 'express';
+import { Router, type Response } from 'express';
 import { z } from 'zod';
 import {
   runListSchema,
@@ -13,8 +13,8 @@ import {
   studySchema,
   type StudyEvent,
 } from '@/shared/api/work';
-import type { AppDeps } from '../app';
-import { labRoute } from '../auth/permissions';
+import type { AppDeps } from '../deps';
+import { labRoute, type LabRequest } from '../auth/permissions';
 import { AppError } from '../errors';
 import type { StudyQueue } from '../jobs/scheduler';
 import { cancelStudy, getStudy, listLabStudies, listStudyRuns, startStudy } from '../services/studies';
@@ -33,32 +33,32 @@ export function studyRoutes(deps: AppDeps): Router {
   const r = Router();
   const base = '/labs/:labId/studies';
   labRoute(r, deps.db, { method: 'get', path: base, action: 'studies.read', summary: 'List the studies of a lab', query: studyListQuerySchema, response: studyListSchema }, async (req, res) => {
-    res.json(await listLabStudies(deps.db, req.lab!.id, parseBody(studyListQuerySchema, req.query)));
+    res.json(await listLabStudies(deps.db, req.lab.id, parseBody(studyListQuerySchema, req.query)));
   });
   labRoute(r, deps.db, { method: 'post', path: base, action: 'studies.start', summary: 'Start a study; it runs in the background', body: startStudySchema, response: studySchema, status: 202 }, async (req, res) => {
     const body = parseBody(startStudySchema, req.body);
-    res.status(202).json(await startStudy(deps.db, queueOf(deps), req.lab!.id, req.user!.id, body));
+    res.status(202).json(await startStudy(deps.db, queueOf(deps), req.lab.id, req.user.id, body));
   });
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id`, action: 'studies.read', summary: 'A study with its progress', response: studySchema }, async (req, res) => {
-    res.json(await getStudy(deps.db, deps.studyQueue, req.lab!.id, parseBody(idParam, req.params).id));
+    res.json(await getStudy(deps.db, deps.studyQueue, req.lab.id, parseBody(idParam, req.params).id));
   });
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id/runs`, action: 'studies.read', summary: 'The stored runs of a study, in order', response: runListSchema }, async (req, res) => {
-    res.json(await listStudyRuns(deps.db, req.lab!.id, parseBody(idParam, req.params).id));
+    res.json(await listStudyRuns(deps.db, req.lab.id, parseBody(idParam, req.params).id));
   });
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id/results`, action: 'studies.read', summary: 'Aggregated results, criteria and per-line curves', response: studyResultsSchema }, async (req, res) => {
-    res.json(await getStudyResults(deps.db, req.lab!.id, parseBody(idParam, req.params).id));
+    res.json(await getStudyResults(deps.db, req.lab.id, parseBody(idParam, req.params).id));
   });
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id/events`, action: 'studies.read', summary: 'Progress as server-sent events (progress…, then end)', produces: 'text/event-stream' }, async (req, res) => {
     await streamEvents(deps, req, res, parseBody(idParam, req.params).id);
   });
   labRoute(r, deps.db, { method: 'post', path: `${base}/:id/cancel`, action: 'studies.cancel', summary: 'Cancel a queued or running study', response: studySchema, status: 202 }, async (req, res) => {
-    res.status(202).json(await cancelStudy(deps.db, queueOf(deps), req.lab!.id, req.user!.id, parseBody(idParam, req.params).id));
+    res.status(202).json(await cancelStudy(deps.db, queueOf(deps), req.lab.id, req.user.id, parseBody(idParam, req.params).id));
   });
   return r;
 }
 
 /** Server-sent events: the current progress at once, each change, and a final `end` event. */
-async function streamEvents(deps: AppDeps, req: Request, res: Response, id: string) {
+async function streamEvents(deps: AppDeps, req: LabRequest, res: Response, id: string) {
   const queue = deps.studyQueue;
   const pending: StudyEvent[] = [];
   let ready = false;
@@ -80,7 +80,7 @@ async function streamEvents(deps: AppDeps, req: Request, res: Response, id: stri
   }
   let study;
   try {
-    study = await getStudy(deps.db, queue, req.lab!.id, id);
+    study = await getStudy(deps.db, queue, req.lab.id, id);
   } catch (err) {
     unsubscribe();
     throw err;

@@ -10,7 +10,7 @@ import { Router } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import { uploadListQuerySchema, uploadListSchema, uploadResultSchema, uploadSchema } from '@/shared/api/work';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { AppError } from '../errors';
 import { generatedName, incomingDir, sweepIncoming } from '../services/upload-files';
@@ -23,6 +23,9 @@ const idParam = z.object({ id: z.string() });
 function oneCsvFile(dataDir: string): RequestHandler {
   const dir = incomingDir(dataDir);
   const upload = multer({
+    // Browsers send the file name as raw UTF-8 in the part header; busboy's default (latin1)
+    // would store "中文" as mojibake.
+    defParamCharset: 'utf8',
     storage: multer.diskStorage({
       destination: (_req, _file, cb) => {
         fs.mkdir(dir, { recursive: true }, (err) => cb(err, dir));
@@ -69,7 +72,7 @@ export function uploadRoutes(deps: AppDeps): Router {
   // by a process that stopped mid-upload (one server per DATA_DIR), so all of it goes.
   sweepIncoming(dataDir, 0);
   labRoute(r, deps.db, { method: 'get', path: base, action: 'uploads.read', summary: 'List the uploads of a lab', query: uploadListQuerySchema, response: uploadListSchema }, async (req, res) => {
-    res.json(await listLabUploads(deps.db, req.lab!.id, parseBody(uploadListQuerySchema, req.query)));
+    res.json(await listLabUploads(deps.db, req.lab.id, parseBody(uploadListQuerySchema, req.query)));
   });
   labRoute(
     r,
@@ -78,14 +81,14 @@ export function uploadRoutes(deps: AppDeps): Router {
     oneCsvFile(dataDir),
     async (req, res) => {
       const file = req.file ? { path: req.file.path, originalName: req.file.originalname, size: req.file.size } : undefined;
-      res.status(201).json(await storeUpload(deps.db, dataDir, req.lab!.id, req.user!.id, req.body, file));
+      res.status(201).json(await storeUpload(deps.db, dataDir, req.lab.id, req.user.id, req.body, file));
     },
   );
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id`, action: 'uploads.read', summary: 'One upload', response: uploadSchema }, async (req, res) => {
-    res.json(await getUpload(deps.db, req.lab!.id, parseBody(idParam, req.params).id));
+    res.json(await getUpload(deps.db, req.lab.id, parseBody(idParam, req.params).id));
   });
   labRoute(r, deps.db, { method: 'get', path: `${base}/:id/result`, action: 'uploads.read', summary: 'The result of an upload, recomputed from its stored file', response: uploadResultSchema }, async (req, res) => {
-    res.json(await getUploadResult(deps.db, dataDir, req.lab!.id, parseBody(idParam, req.params).id));
+    res.json(await getUploadResult(deps.db, dataDir, req.lab.id, parseBody(idParam, req.params).id));
   });
   return r;
 }

@@ -4,7 +4,7 @@
  *
  *   await db.transaction(async (trx) => {
  *     await trx('systems').insert(row);
- *     await recordAudit(trx, { labId, actorUserId: req.user!.id, action: 'systems.create',
+ *     await recordAudit(trx, { labId, actorUserId: req.user.id, action: 'systems.create',
  *       targetType: 'system', targetId: row.id, after: { name: row.name } });
  *   });
  *

@@ -13,8 +13,23 @@ export interface NumericTable {
   rows: number;
 }
 
-/** A 400 for a bad file, with where it went wrong in `details`. */
-export function badFile(message: string, where: { line?: number; column?: string } = {}): AppError {
+/** At most this many characters of a name from the file are echoed back in a message. */
+const ECHO_CHARS = 40;
+/** At most this many column names are listed in a message (a header may have 200 000). */
+const ECHO_COLUMNS = 12;
+
+/** A name from the file, cut to ECHO_CHARS so a message never grows with the file. */
+export const echo = (name: string) => (name.length > ECHO_CHARS ? `${name.slice(0, ECHO_CHARS)}…` : name);
+
+/** "a", "b", … and N more: the header's names as a message lists them. */
+export function listColumns(columns: string[]): string {
+  const shown = columns.slice(0, ECHO_COLUMNS).map((c) => `"${echo(c)}"`).join(', ');
+  return columns.length > ECHO_COLUMNS ? `${shown} and ${columns.length - ECHO_COLUMNS} more` : shown;
+}
+
+/** A 400 for a bad file, with where it went wrong in `details` (names from the file cut short). */
+export function badFile(message: string, place: { line?: number; column?: string } = {}): AppError {
+  const where = place.column === undefined ? place : { ...place, column: echo(place.column) };
   const at = [where.line !== undefined ? `line ${where.line}` : '', where.column ? `column "${where.column}"` : '']
     .filter(Boolean)
     .join(', ');
@@ -36,8 +51,8 @@ export function readNumericTable(text: string, opts: { maxRows: number; minRows:
   const seen = new Set<string>();
   columns.forEach((name, i) => {
     if (name === '') throw badFile(`column ${i + 1} has no name in the header row`, { line: 1 });
-    if (seen.has(name)) throw badFile(`column "${name}" appears twice in the header row`, { line: 1 });
-    if (!Number.isNaN(Number(name))) throw badFile(`the first row must be a header of column names, found the number ${name}`, { line: 1 });
+    if (seen.has(name)) throw badFile(`column "${echo(name)}" appears twice in the header row`, { line: 1 });
+    if (!Number.isNaN(Number(name))) throw badFile(`the first row must be a header of column names, found the number ${echo(name)}`, { line: 1 });
     seen.add(name);
   });
   const rows = last - 1;
@@ -65,8 +80,23 @@ export function readNumericTable(text: string, opts: { maxRows: number; minRows:
 /** The named column, or a 400 listing the columns the file has. */
 export function column(table: NumericTable, name: string): Float64Array {
   const found = table.data.get(name);
-  if (!found) throw badFile(`no column "${name}"; the header has ${table.columns.map((c) => `"${c}"`).join(', ')}`, { line: 1 });
+  if (!found) throw badFile(`no column "${echo(name)}"; the header has ${listColumns(table.columns)}`, { line: 1 });
   return found;
+}
+
+/**
+ * Values whose squares and products stay finite and above the denormal range in float64
+ * (about 1e±308): a channel whose largest magnitude lies outside [1e-150, 1e150], or is zero,
+ * cannot give a spectrum, so the upload is refused naming the column.
+ */
+export const USABLE_MAGNITUDE = { min: 1e-150, max: 1e150 };
+
+export function requireUsableChannel(values: Float64Array, name: string): void {
+  let peak = 0;
+  for (let i = 0; i < values.length; i++) peak = Math.max(peak, Math.abs(values[i]));
+  if (peak === 0) throw badFile('every value is zero, so no spectrum can be formed', { column: name });
+  if (peak > USABLE_MAGNITUDE.max) throw badFile(`values reach ${peak.toPrecision(3)}; above ${USABLE_MAGNITUDE.max} the spectra overflow. Rescale the column`, { column: name });
+  if (peak < USABLE_MAGNITUDE.min) throw badFile(`every value is below ${USABLE_MAGNITUDE.min} in size; the spectra would underflow. Rescale the column`, { column: name });
 }
 
 function isBlank(record: string[] | undefined): boolean {

@@ -7,7 +7,7 @@
  * receptance, mobility or accelerance). Exact FRF: frequency_hz, h_re, h_im in m/N, m/(N·s) or
  * m/(N·s²), the underlying linear system's FRF.
  */
-import { resolveScenario, simulateScenario } from '@/shared/engine/scenario';
+import { parseScenario, resolveScenario, simulateScenario } from '@/shared/engine/scenario';
 import type { Db } from '../db/knex';
 import { findResource, findVersion } from '../db/versioned';
 import { AppError, notFound } from '../errors';
@@ -41,7 +41,7 @@ export function fileSafe(name: string): string {
 
 export async function scenarioSignals(db: Db, labId: string, id: string, q: { seed: number; version?: number }): Promise<CsvExport> {
   const s = await scenarioDefinition(db, labId, id, q.version);
-  const record = checkedByEngine('scenario', () => simulateScenario(s.definition as never, q.seed));
+  const record = checkedByEngine('scenario', () => simulateScenario(parseScenario(s.definition), q.seed));
   const fs = record.sampleRateHz;
   function* rows() {
     for (let i = 0; i < record.input.length; i++) yield [i / fs, record.input[i], record.output[i]];
@@ -67,7 +67,7 @@ export async function scenarioSignalsWav(
   q: { seed: number; version?: number },
 ): Promise<WavFile & { filename: string }> {
   const s = await scenarioDefinition(db, labId, id, q.version);
-  const record = checkedByEngine('scenario', () => simulateScenario(s.definition as never, q.seed));
+  const record = checkedByEngine('scenario', () => simulateScenario(parseScenario(s.definition), q.seed));
   const wav = encodeFloatWav(record.sampleRateHz, [
     { name: 'input (force)', unit: record.inputUnit, samples: record.input },
     { name: 'output (response)', unit: record.outputUnit, samples: record.output },

@@ -8,7 +8,7 @@
  */
 import { scoreFrf } from '@/shared/engine/scores/line-scores';
 import { buildSystem, type SystemSpec } from '@/shared/engine/systems';
-import { badFile, column, type NumericTable } from './csv-read';
+import { badFile, column, listColumns, USABLE_MAGNITUDE, type NumericTable } from './csv-read';
 import { checkedByEngine } from './engine-input';
 import { toJsonArray } from './time-data-analysis';
 
@@ -27,7 +27,7 @@ export function readUploadedFrf(table: NumericTable): UploadedFrf {
     if (i > 0 && !(f[i] > f[i - 1])) throw badFile('frequencies must rise from row to row', { line: i + 2, column: 'frequency_hz' });
   }
   if (table.data.has('h_re') || table.data.has('h_im')) {
-    return { frequenciesHz: f, re: column(table, 'h_re'), im: column(table, 'h_im'), format: 're-im' };
+    return usable({ frequenciesHz: f, re: column(table, 'h_re'), im: column(table, 'h_im'), format: 're-im' });
   }
   if (table.data.has('magnitude_db') || table.data.has('phase_deg')) {
     const db = column(table, 'magnitude_db');
@@ -40,12 +40,27 @@ export function readUploadedFrf(table: NumericTable): UploadedFrf {
       re[i] = m * Math.cos(p);
       im[i] = m * Math.sin(p);
     }
-    return { frequenciesHz: f, re, im, format: 'magnitude-phase' };
+    return usable({ frequenciesHz: f, re, im, format: 'magnitude-phase' });
   }
   throw badFile(
-    `needs columns h_re and h_im, or magnitude_db and phase_deg, beside frequency_hz; the header has ${table.columns.map((c) => `"${c}"`).join(', ')}`,
+    `needs columns h_re and h_im, or magnitude_db and phase_deg, beside frequency_hz; the header has ${listColumns(table.columns)}`,
     { line: 1 },
   );
+}
+
+/**
+ * Refuses an FRF that can give no score: a line whose |Ĥ| is not finite (e.g. 1e308 dB), or a
+ * file in which no line's |Ĥ| lies in the usable range (all zeros, denormals).
+ */
+function usable(frf: UploadedFrf): UploadedFrf {
+  let scorable = 0;
+  for (let i = 0; i < frf.re.length; i++) {
+    const m = Math.hypot(frf.re[i], frf.im[i]);
+    if (!Number.isFinite(m)) throw badFile('this value is too large to be an FRF magnitude', { line: i + 2, column: frf.format === 're-im' ? 'h_re' : 'magnitude_db' });
+    if (m >= USABLE_MAGNITUDE.min && m <= USABLE_MAGNITUDE.max) scorable++;
+  }
+  if (scorable === 0) throw badFile(`no line has a usable FRF magnitude (every |H| is zero or outside ${USABLE_MAGNITUDE.min} to ${USABLE_MAGNITUDE.max})`);
+  return frf;
 }
 
 export function analyseUploadedFrf(table: NumericTable, system: SystemSpec) {

@@ -10,7 +10,7 @@ import { passwordProblem, type AcceptInvitationRequest, type Invitation, type In
 import { hashPassword, verifyPassword } from '../auth/password';
 import {
   findInvitation, findInvitationByTokenHash, insertInvitation, listInvitations, pendingInvitationsFor,
-  revokeInvitationRow, spendInvitation, type InvitationRow, type InvitationStatus,
+  revokeInvitationRow, claimInvitation, setInvitationAcceptedUser, type InvitationRow, type InvitationStatus,
 } from '../db/invitations';
 import type { Db } from '../db/knex';
 import { findAnyUserByEmail, findLab, findMember, findMemberByEmail } from '../db/members';
@@ -133,8 +133,8 @@ async function openInvitation(db: Db, token: string): Promise<InvitationRow> {
 export async function previewInvitation(db: Db, token: string): Promise<InvitationPreview> {
   const row = await openInvitation(db, token);
   const lab = await findLab(db, row.lab_id);
-  const user = await findAnyUserByEmail(db, row.email);
-  return { labName: lab?.name ?? '', email: row.email, role: row.role, accountExists: !!user, expiresAt: Number(row.expires_at) };
+  // Whether the address has an account elsewhere is not said: the preview is the same either way.
+  return { labName: lab?.name ?? '', email: row.email, role: row.role, expiresAt: Number(row.expires_at) };
 }
 
 /** Accepts an invitation; returns the user id to sign in. */
@@ -148,18 +148,21 @@ export async function acceptInvitation(db: Db, token: string, input: AcceptInvit
       throw new AppError(401, 'wrong_credentials', 'This address already has an account: enter its current password.');
     }
   } else {
-    if (!input.displayName) throw new AppError(400, 'invalid_request', 'displayName: Enter your name', { fields: [{ path: 'displayName', message: 'Enter your name' }] });
+    if (!input.displayName) throw new AppError(400, 'invalid_request', 'Enter your name to create your account.', { fields: [{ path: 'displayName', message: 'Enter your name' }] });
     const problem = passwordProblem(input.password, inv.email);
     if (problem) throw new AppError(400, 'weak_password', `password: ${problem}`, { fields: [{ path: 'password', message: problem }] });
     newAccount = { passwordHash: await hashPassword(input.password), displayName: input.displayName };
   }
   return db.transaction(async (trx) => {
+    // Simultaneous accepts of one link: the invitation is spent first, so the losers get 410
+    // before any account is written (inserting first made them fail on the unique e-mail: 500).
+    const used = () => new AppError(410, 'invitation_used', 'This invitation has already been used. Sign in instead.');
+    if (!(await claimInvitation(trx, inv.id, Date.now()))) throw used();
+    if (!existing && (await findAnyUserByEmail(trx, inv.email))) throw used();
     const userId = existing
       ? existing.id
       : await insertUser(trx, { email: inv.email, displayName: newAccount!.displayName, passwordHash: newAccount!.passwordHash });
-    if (!(await spendInvitation(trx, inv.id, userId, Date.now()))) {
-      throw new AppError(410, 'invitation_used', 'This invitation has already been used. Sign in instead.');
-    }
+    await setInvitationAcceptedUser(trx, inv.id, userId);
     await recordAudit(trx, { labId: inv.lab_id, actorUserId: userId, action: 'invitations.accept', targetType: 'invitation', targetId: inv.id, after: { newAccount: !existing } });
     if (!(await findMember(trx, inv.lab_id, userId))) {
       await addMembership(trx, { labId: inv.lab_id, userId, role: inv.role });

@@ -1,23 +1,23 @@
 /**
  * Password reset by mail: a request answers the same whether or not the address has an account
- * (the mail, if any, is sent after the answer so timing does not tell either); the link works once
- * and for one hour; confirming sets the new password and ends every session of the user.
+ * (the mail, if any, is sent after the answer so timing does not tell either); the link works once,
+ * for one hour, and only while it is the newest one; confirming sets the new password and ends every session of the user.
  * Requests are rate-limited per address and per client.
  */
 import { randomUUID } from 'node:crypto';
 import { passwordProblem } from '@/shared/api/people';
 import type { Auth } from '../auth/lucia';
 import { hashPassword } from '../auth/password';
-import { findPasswordResetByTokenHash, insertPasswordReset, spendPasswordReset } from '../db/invitations';
+import { closeOpenPasswordResets, findPasswordResetByTokenHash, insertPasswordReset, spendPasswordReset } from '../db/invitations';
 import type { Db } from '../db/knex';
 import { setPasswordHash } from '../db/members';
 import { findUserByEmail, findUserById } from '../db/users';
 import { AppError } from '../errors';
 import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
+import { resetRequestRefused } from './attempt-limits';
 import { recordAudit } from './audit';
 import { newToken, sameHash, tokenHash } from './invitations';
-import type { AttemptLimiter } from './sign-in';
 
 export const RESET_MINUTES = 60;
 export const RESET_ANSWER = 'If an account uses this address, a message with a reset link is on its way.';
@@ -28,23 +28,20 @@ interface Deps {
   mailer: Mailer;
   logger: Logger;
   publicUrl: string;
-  /** Counts every reset request (not only failures) per address and per client. */
-  resetLimiter: AttemptLimiter;
 }
 
 export async function requestPasswordReset(deps: Deps, email: string, client: { ip: string }): Promise<{ message: string }> {
-  // 'ip:' keys get the limiter's per-client allowance (several people may share an address).
-  const keys = [`reset:${email}`, `ip:reset:${client.ip}`];
-  if (keys.some((k) => deps.resetLimiter.blocked(k))) {
+  if (await resetRequestRefused(deps.db, email, client.ip)) {
     throw new AppError(429, 'too_many_attempts', 'Too many password reset requests. Wait 15 minutes and try again.');
   }
-  keys.forEach((k) => deps.resetLimiter.fail(k));
   const user = await findUserByEmail(deps.db, email);
   if (!user) return { message: RESET_ANSWER };
 
   const { token, hash } = newToken();
   const now = Date.now();
   await deps.db.transaction(async (trx) => {
+    // Only the newest link works: an older one found later in a mailbox is already closed.
+    await closeOpenPasswordResets(trx, user.id, now);
     await insertPasswordReset(trx, { id: randomUUID(), user_id: user.id, token_hash: hash, created_at: now, expires_at: now + RESET_MINUTES * 60_000, used_at: null });
     await recordAudit(trx, { labId: null, actorUserId: null, action: 'auth.password-reset-requested', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
   });

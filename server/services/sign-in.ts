@@ -1,12 +1,14 @@
 /**
- * Signing in: one answer for unknown e-mails and wrong passwords, a rate limit per address and
- * per client, and a new session every time (the old one, if any, is dropped: session rotation).
+ * Signing in: one answer for unknown e-mails and wrong passwords, rate limits kept in SQLite
+ * (attempt-limits.ts: per account and client together, so nobody can lock another out), and a new
+ * session every time (the old one, if any, is dropped: session rotation).
  */
 import type { Auth } from '../auth/lucia';
 import { decoyHash, verifyPassword } from '../auth/password';
 import type { Db } from '../db/knex';
 import { findUserByEmail, findUserById, listMemberships } from '../db/users';
 import { AppError } from '../errors';
+import { clearSignInFailures, recordSignInFailure, signInBlocked } from './attempt-limits';
 import { recordAudit } from './audit';
 import type { MeResponse, SignInRequest } from '@/shared/api/auth';
 
@@ -15,7 +17,7 @@ const WINDOW_MS = 15 * 60_000;
 export const MAX_FAILURES_PER_ACCOUNT = 8;
 export const MAX_FAILURES_PER_CLIENT = 40;
 
-/** Failed attempts per key within a sliding window; kept in memory (one server process). */
+/** Failed attempts per key within a sliding window, in memory (the signature re-entry uses it). */
 export class AttemptLimiter {
   private failures = new Map<string, number[]>();
   constructor(private readonly windowMs = WINDOW_MS) {}
@@ -38,12 +40,11 @@ export class AttemptLimiter {
 const wrongCredentials = () => new AppError(401, 'wrong_credentials', 'E-mail or password is not right.');
 
 export async function signIn(
-  deps: { db: Db; auth: Auth; limiter: AttemptLimiter },
+  deps: { db: Db; auth: Auth },
   input: SignInRequest,
   client: { ip: string; previousSessionId?: string },
 ): Promise<{ sessionId: string; me: MeResponse }> {
-  const keys = [`email:${input.email}`, `ip:${client.ip}`];
-  if (keys.some((k) => deps.limiter.blocked(k))) {
+  if (await signInBlocked(deps.db, input.email, client.ip)) {
     throw new AppError(429, 'too_many_attempts', 'Too many failed sign-in attempts. Wait 15 minutes and try again.');
   }
   const user = await findUserByEmail(deps.db, input.email);
@@ -51,7 +52,7 @@ export async function signIn(
     ? await verifyPassword(user.password_hash, input.password)
     : (await verifyPassword(await decoyHash(), input.password), false);
   if (!user || !ok) {
-    keys.forEach((k) => deps.limiter.fail(k));
+    await recordSignInFailure(deps.db, input.email, client.ip);
     // Lab-less event; the address is kept as typed so an admin can see guessing against it.
     await recordAudit(deps.db, {
       labId: null, actorUserId: null, action: 'auth.sign-in-failed', targetType: 'user', targetId: user?.id ?? null,
@@ -59,7 +60,7 @@ export async function signIn(
     });
     throw wrongCredentials();
   }
-  deps.limiter.clear(keys[0]);
+  await clearSignInFailures(deps.db, input.email, client.ip);
   if (client.previousSessionId) await deps.auth.invalidateSession(client.previousSessionId);
   const session = await deps.auth.createSession(user.id, { createdAt: Date.now() });
   await recordAudit(deps.db, { labId: null, actorUserId: user.id, action: 'auth.sign-in', targetType: 'user', targetId: user.id, after: { ip: client.ip } });

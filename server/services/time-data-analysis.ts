@@ -6,7 +6,7 @@
  */
 import { processRecord } from '@/shared/engine/process';
 import type { Recipe } from '@/shared/engine/recipe';
-import { badFile, column, type NumericTable } from './csv-read';
+import { badFile, column, listColumns, requireUsableChannel, type NumericTable } from './csv-read';
 import { checkedByEngine } from './engine-input';
 
 export interface TimeDataOptions {
@@ -43,10 +43,12 @@ export function analyseTimeData(table: NumericTable, recipe: Recipe, o: TimeData
   if (o.inputColumn === o.outputColumn) throw badFile(`the input and output columns must differ (both "${o.inputColumn}")`);
   const input = column(table, o.inputColumn);
   const output = column(table, o.outputColumn);
+  requireUsableChannel(input, o.inputColumn);
+  requireUsableChannel(output, o.outputColumn);
   let sampleRateHz = o.sampleRateHz;
   if (sampleRateHz === undefined) {
     if (!table.data.has(o.timeColumn)) {
-      throw badFile(`no time column "${o.timeColumn}" and no sampleRateHz given; the header has ${table.columns.map((c) => `"${c}"`).join(', ')}`, { line: 1 });
+      throw badFile(`no time column "${o.timeColumn}" and no sampleRateHz given; the header has ${listColumns(table.columns)}`, { line: 1 });
     }
     sampleRateHz = sampleRateFromTime(column(table, o.timeColumn), o.timeColumn);
   }

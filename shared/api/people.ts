@@ -99,8 +99,6 @@ export const invitationPreviewSchema = z.object({
   labName: z.string(),
   email: z.string(),
   role: roleSchema,
-  /** True when the address already has a Plumbline account: accept with its current password. */
-  accountExists: z.boolean(),
   expiresAt: millis,
 });
 export type InvitationPreview = z.infer<typeof invitationPreviewSchema>;

@@ -23,7 +23,8 @@ export const listQueryOf = <S extends readonly [string, ...string[]]>(sorts: S, 
   z.object({
     limit: z.coerce.number().int().min(1).max(200).default(50),
     offset: z.coerce.number().int().min(0).default(0),
-    sort: z.enum(sorts).default(defaultSort as never),
+    // parse() gives the default the enum's own output type (and checks it is one of the sorts).
+    sort: z.enum(sorts).default(z.enum(sorts).parse(defaultSort)),
     order: z.enum(['asc', 'desc']).default(defaultOrder),
     /** Part of the name, case-insensitive; empty means no filter. */
     q: z

@@ -58,7 +58,7 @@ it('writes the engine samples as two float32 channels with the scaling stated', 
   const res = await analyst.get(`${lab}/scenarios/${scenarioId}/signals.wav?seed=7`).buffer(true).parse(binary).expect(200);
   expect(res.headers['content-type']).toBe('audio/wav');
   const wav = readWav(res.body as Buffer);
-  const record = simulateScenario(smallScenario('WAV scenario') as never, 7);
+  const record = simulateScenario(smallScenario('WAV scenario'), 7);
   expect(wav).toMatchObject({ format: 3, channels: 2, bits: 32, blockAlign: 8, rate: record.sampleRateHz, byteRate: record.sampleRateHz * 8 });
   expect(wav.data.length).toBe(record.input.length * 8);
 

@@ -188,7 +188,7 @@ export function buildRegistry(): { destroy(): Promise<void> } {
     logger: createLogger('silent'),
     mailer: createMailer({ db, logger: createLogger('silent') }, { host: '127.0.0.1', port: 9, secure: false }, 'x@example.test'),
     version: 'test',
-  } as import('@/server/app').AppDeps);
+  } as import('@/server/deps').AppDeps);
   return { destroy: () => db.destroy() };
 }
 

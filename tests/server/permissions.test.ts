@@ -6,7 +6,7 @@
  */
 import type { Router } from 'express';
 import type { Role } from '@/shared/api/auth';
-import type { AppDeps } from '@/server/app';
+import type { AppDeps } from '@/server/deps';
 import { createAuth } from '@/server/auth/lucia';
 import { ACTIONS, can, PERMISSIONS, ROLES, routeRegistry, type RouteSpec } from '@/server/auth/permissions';
 import { loadConfig } from '@/server/config';

@@ -89,7 +89,7 @@ describe('a study from start to finished', () => {
 
   it('answers exactly what the engine computes for the same study in one process', async () => {
     const res = await analyst.get(`${lab}/studies/${studyId}/results`).expect(200);
-    const direct = runStudy({ recipe: parseRecipe(periodicRecipe()), scenarios: [periodicScenario(), smallScenario()] as never, seeds: 3, baseSeed: 1 });
+    const direct = runStudy({ recipe: parseRecipe(periodicRecipe()), scenarios: [periodicScenario(), smallScenario()], seeds: 3, baseSeed: 1 });
     const json = (v: unknown) => JSON.parse(JSON.stringify(v));
     direct.results.forEach((r, j) => {
       const served = res.body.scenarios[j];

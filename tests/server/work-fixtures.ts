@@ -4,9 +4,11 @@
  * textbook single-degree-of-freedom receptance 1/(k − mω² + jcω) (e.g. S. S. Rao, Mechanical
  * Vibrations); the tests use them only as known-answer inputs.
  */
+import type { ScenarioInput } from '@/shared/engine/scenario';
+
 export const sdofSystem = { kind: 'sdof', quantity: 'receptance', stiffnessNPerM: 1e4, naturalFrequencyHz: 50, dampingRatio: 0.02 } as const;
 
-export function smallScenario(name = 'SDOF 50 Hz, output noise', snrDb = 30) {
+export function smallScenario(name = 'SDOF 50 Hz, output noise', snrDb = 30): ScenarioInput {
   return {
     name,
     system: sdofSystem,
@@ -37,7 +39,7 @@ export function smallRecipe(name = 'Hann 256, H1') {
  * A. V. Oppenheim & R. W. Schafer, Discrete-Time Signal Processing, on the DFS/DFT relation).
  * No noise, so the coherence is 1.
  */
-export function periodicScenario(name = 'SDOF 50 Hz, pseudo-random, no errors') {
+export function periodicScenario(name = 'SDOF 50 Hz, pseudo-random, no errors'): ScenarioInput {
   return {
     name,
     system: sdofSystem,

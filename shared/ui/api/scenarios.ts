@@ -1,11 +1,11 @@
 /** The lab's scenarios (versioned), and the links of their CSV exports (signals, exact FRF). */
 import { scenarioVersionSchema } from '@/shared/api/work';
-import type { Scenario } from '@/shared/engine/scenario';
+import type { Scenario, ScenarioInput } from '@/shared/engine/scenario';
 import { labPath } from './labs';
 import { createResourceHooks, type ResourceVersionOf } from './versioned-resource';
 
 export type ScenarioRecord = ResourceVersionOf<Scenario>;
-export const scenariosApi = createResourceHooks<Scenario>('scenarios', scenarioVersionSchema);
+export const scenariosApi = createResourceHooks<Scenario, ScenarioInput>('scenarios', scenarioVersionSchema);
 export const scenarioKeys = scenariosApi.keys;
 
 /** GET …/scenarios/:id/signals.csv: force and response for one seed, at a stored version. */

@@ -47,7 +47,8 @@ export function listPath(labId: string, kind: ResourceKind, filter: ListFilter):
   return labPath(labId, `/${kind}?${q}`);
 }
 
-export function createResourceHooks<D>(kind: ResourceKind, versionSchema: z.ZodType<ResourceVersionOf<D>>) {
+/** D: the definition as stored and answered; I: the definition as a save request sends it (the schema's input). */
+export function createResourceHooks<D, I = D>(kind: ResourceKind, versionSchema: z.ZodType<ResourceVersionOf<D>>) {
   const keys = resourceKeys(kind);
   const itemPath = (labId: string, id: string, rest = '') => labPath(labId, `/${kind}/${encodeURIComponent(id)}${rest}`);
 
@@ -99,14 +100,14 @@ export function createResourceHooks<D>(kind: ResourceKind, versionSchema: z.ZodT
     useCreate(labId: string) {
       const client = useQueryClient();
       return useMutation({
-        mutationFn: (body: SaveRequest<D>) => api.post(labPath(labId, `/${kind}`), body, { schema: versionSchema }),
+        mutationFn: (body: SaveRequest<I>) => api.post(labPath(labId, `/${kind}`), body, { schema: versionSchema }),
         onSuccess: (saved) => afterSave(client, labId, saved),
       });
     },
     useUpdate(labId: string, id: string) {
       const client = useQueryClient();
       return useMutation({
-        mutationFn: (body: SaveRequest<D> & { baseVersion: number }) =>
+        mutationFn: (body: SaveRequest<I> & { baseVersion: number }) =>
           apiRequest(itemPath(labId, id), {
             method: 'PUT',
             body,

@@ -20,39 +20,42 @@ import { checkNewPassword, passwordHint } from './password-fields';
 
 type Fields = { displayName: string; password: string; repeat: string };
 
-/** New accounts: the server's accept schema with a required name, plus the password rule. */
-export const newAccountSchema = (email: string) =>
+/**
+ * One form for both cases, so the page never tells whether the address already has an account:
+ * a name (and a new password, twice) for a new account; no name and the current password for an
+ * existing one. The server decides which applies.
+ */
+export const acceptSchema = (email: string) =>
   acceptInvitationRequestSchema
-    .extend({ displayName: z.string().trim().min(1, 'Enter your name').max(100), repeat: z.string() })
-    .superRefine((v, ctx) => checkNewPassword(v, email, ctx));
-/** Existing accounts: only the current password. */
-export const existingAccountSchema = acceptInvitationRequestSchema.pick({ password: true }).extend({ displayName: z.string(), repeat: z.string() });
+    .extend({ displayName: z.string().trim().max(100), repeat: z.string() })
+    .superRefine((v, ctx) => {
+      if (v.displayName.length > 0) checkNewPassword(v, email, ctx);
+    });
 
 function AcceptForm({ token, preview }: { token: string; preview: InvitationPreview }) {
   const accept = useAcceptInvitation(token);
-  const schema = preview.accountExists ? existingAccountSchema : newAccountSchema(preview.email);
-  const { control, handleSubmit, formState: { errors } } = useForm<Fields>({
-    resolver: zodResolver(schema as z.ZodType<Fields, Fields>),
+  const { control, handleSubmit, watch, formState: { errors } } = useForm<Fields>({
+    resolver: zodResolver(acceptSchema(preview.email) as z.ZodType<Fields, Fields>),
     defaultValues: { displayName: '', password: '', repeat: '' },
   });
-  const submit = handleSubmit((v) => accept.mutate(preview.accountExists ? { password: v.password } : { displayName: v.displayName, password: v.password }));
+  const isNew = watch('displayName').trim().length > 0;
+  const submit = handleSubmit((v) => accept.mutate(v.displayName.trim() ? { displayName: v.displayName.trim(), password: v.password } : { password: v.password }));
   return (
     <View style={styles.form} testID="accept-form">
-      {preview.accountExists ? (
-        <AppText variant="body">You already have a Plumbline account with this address. Enter its password to join the lab.</AppText>
-      ) : (
-        <Controller control={control} name="displayName" render={({ field }) => (
-          <TextField label="Your name" hint="As colleagues and the audit trail will show it." value={field.value} onChangeText={field.onChange} onBlur={field.onBlur} error={errors.displayName?.message} autoComplete="name" testID="accept-name" />
-        )} />
-      )}
-      <Controller control={control} name="password" render={({ field }) => (
-        <TextField label={preview.accountExists ? 'Your password' : 'New password'} hint={preview.accountExists ? undefined : passwordHint} value={field.value} onChangeText={field.onChange} onBlur={field.onBlur} error={errors.password?.message} secureTextEntry autoComplete={preview.accountExists ? 'current-password' : 'new-password'} testID="accept-password" />
+      <AppText variant="body">
+        New to Plumbline: enter your name and choose a password. Already have a Plumbline account with this address: leave the name empty and enter its password.
+      </AppText>
+      <Controller control={control} name="displayName" render={({ field }) => (
+        <TextField label="Your name" hint="Only for a new account: as colleagues and the audit trail will show it." value={field.value} onChangeText={field.onChange} onBlur={field.onBlur} error={errors.displayName?.message} autoComplete="name" testID="accept-name" />
       )} />
-      {preview.accountExists ? null : (
+      <Controller control={control} name="password" render={({ field }) => (
+        <TextField label={isNew ? 'New password' : 'Your password'} hint={isNew ? passwordHint : undefined} value={field.value} onChangeText={field.onChange} onBlur={field.onBlur} error={errors.password?.message} secureTextEntry autoComplete={isNew ? 'new-password' : 'current-password'} testID="accept-password" />
+      )} />
+      {isNew ? (
         <Controller control={control} name="repeat" render={({ field }) => (
           <TextField label="New password again" value={field.value} onChangeText={field.onChange} onBlur={field.onBlur} error={errors.repeat?.message} secureTextEntry autoComplete="new-password" testID="accept-repeat" />
         )} />
-      )}
+      ) : null}
       {accept.isError ? <AppText variant="body" tone="fail" role="alert" testID="accept-error">{errorText(accept.error)}</AppText> : null}
       <Button label="Join the lab" busy={accept.isPending} busyLabel="Joining…" onPress={() => void submit()} testID="accept-submit" />
     </View>

@@ -49,7 +49,7 @@ type RowLinkProps = { href: string; label: string; active?: boolean; children: R
 export function RowLink({ href, label, active = false, children, testID }: RowLinkProps) {
   const current = active ? ({ 'aria-current': 'page' } as object) : {};
   return (
-    <Link href={href as never} asChild>
+    <Link href={href} asChild>
       <Pressable role="link" accessibilityLabel={label} testID={testID} {...current}>
         {({ hovered, pressed }: { hovered?: boolean; pressed: boolean }) => (
           <View style={[styles.row, (hovered || pressed) && styles.rowHover, active && styles.rowActive]}>
@@ -73,7 +73,7 @@ export function TextLink({ href, children, external, testID }: { href: string; c
     );
   }
   return (
-    <Link href={href as never} style={styles.link} testID={testID}>
+    <Link href={href} style={styles.link} testID={testID}>
       <AppText variant="bodyStrong" style={styles.link}>
         {children}
       </AppText>

@@ -28,7 +28,7 @@ export function RecipeEditor({ labId, id, canWrite }: EditorProps) {
   );
 }
 
-const resolver = engineCheckedResolver<RecipeFormValues>(recipeFormSchema, (d) => parseRecipe(d));
+const resolver = engineCheckedResolver(recipeFormSchema, (d) => parseRecipe(d));
 
 function valuesOf(record: RecipeRecord | null): RecipeFormValues {
   return { note: '', definition: record ? record.definition : startingRecipe() };

@@ -3,7 +3,7 @@
  * detrending, estimator (with the Hv weighting), band of interest, scaling, the transient windows
  * of impact processing, and the acceptance criteria.
  */
-import { useFormContext, useWatch } from 'react-hook-form';
+import { useFormContext, useWatch, type Path, type PathValue } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import type { Recipe } from '@/shared/engine/recipe';
 import { AppText, Caution } from '@/shared/ui/components';
@@ -14,13 +14,14 @@ import { NumberField } from '@/shared/ui/screens/systems/number-field';
 import { space } from '@/shared/ui/theme';
 import { detrendOptions, estimatorOptions, scalingOptions, toleranceFields, transientStart, windowOptions, type RecipeFormValues } from './recipe-form-values';
 
-const p = (rest: string) => `definition.${rest}` as never;
+/** A path under the definition, as a literal type react-hook-form checks against the form's values. */
+const p = <R extends string>(rest: R) => `definition.${rest}` as const;
 
 export function RecipeFields() {
   const { control, setValue, getValues } = useFormContext<RecipeFormValues>();
   const r = useWatch({ control, name: 'definition' }) as Recipe;
   const byResolution = r.frequencyResolutionHz !== undefined;
-  const set = (path: string, value: unknown) => setValue(p(path), value as never, { shouldDirty: true });
+  const set = <P extends Path<RecipeFormValues>>(path: P, value: PathValue<RecipeFormValues, P>) => setValue(path, value, { shouldDirty: true });
   return (
     <View style={styles.fields}>
       <Panel title="Blocks">
@@ -42,7 +43,7 @@ export function RecipeFields() {
         ) : (
           <NumberField control={control} name={p('blockLength')} label="Block length N" unit="samples" hint="A power of two, 4 … 16 777 216" />
         )}
-        <ChoiceChips label="Window" options={windowOptions} value={r.window} onChange={(v) => set('window', v)} />
+        <ChoiceChips label="Window" options={windowOptions} value={r.window} onChange={(v) => set(p('window'), v)} />
         {r.window === 'kaiser' ? <NumberField control={control} name={p('windowParams.kaiserBeta')} label="Kaiser β" unit="" hint="0 … 100" /> : null}
         <NumberField control={control} name={p('overlap')} label="Overlap" unit="" hint="A fraction in [0, 1): 0.5 is 50 %" />
         <ChoiceChips
@@ -52,14 +53,14 @@ export function RecipeFields() {
             { value: 'count', label: 'A set number' },
           ]}
           value={typeof r.averages === 'number' ? 'count' : 'all'}
-          onChange={(v) => set('averages', v === 'all' ? 'all' : 20)}
+          onChange={(v) => set(p('averages'), v === 'all' ? 'all' : 20)}
         />
         {typeof r.averages === 'number' ? <NumberField control={control} name={p('averages')} label="Blocks to average" unit="" /> : null}
-        <ChoiceChips label="Detrend each block" options={detrendOptions} value={r.detrend} onChange={(v) => set('detrend', v)} />
-        <ChoiceChips label="Spectral scaling" options={scalingOptions} value={r.scaling} onChange={(v) => set('scaling', v)} />
+        <ChoiceChips label="Detrend each block" options={detrendOptions} value={r.detrend} onChange={(v) => set(p('detrend'), v)} />
+        <ChoiceChips label="Spectral scaling" options={scalingOptions} value={r.scaling} onChange={(v) => set(p('scaling'), v)} />
       </Panel>
       <Panel title="Estimator and band">
-        <ChoiceChips label="Estimator" options={estimatorOptions} value={r.estimator} onChange={(v) => set('estimator', v)} />
+        <ChoiceChips label="Estimator" options={estimatorOptions} value={r.estimator} onChange={(v) => set(p('estimator'), v)} />
         {r.estimator === 'Hv' ? (
           <>
             <Caution title="Hv depends on channel scaling" testID="hv-note">
@@ -81,7 +82,7 @@ export function RecipeFields() {
         label="Transient windows (impact testing)"
         hint="Triggered blocks: a force window on the input, an exponential window on the response"
         on={r.transient !== undefined}
-        onChange={(on) => set('transient', on ? { ...transientStart } : undefined)}
+        onChange={(on) => set(p('transient'), on ? { ...transientStart } : undefined)}
         testID="transient-switch"
       >
         <NumberField control={control} name={p('transient.forceWindowFraction')} label="Force window length" unit="of the block" hint="(0, 1]" />

@@ -12,13 +12,14 @@ import { space } from '@/shared/ui/theme';
 import { errorStart, type ErrorSource, type ScenarioFormValues } from './scenario-form-values';
 import { SwitchRow } from './switch-row';
 
-const p = (rest: string) => `definition.errors.${rest}` as never;
+/** A path under the error sources, as a literal type react-hook-form checks against the form's values. */
+const p = <R extends string>(rest: R) => `definition.errors.${rest}` as const;
 
 export function ErrorFields({ outputUnit }: { outputUnit: string }) {
   const { control, setValue } = useFormContext<ScenarioFormValues>();
   const errors = (useWatch({ control, name: 'definition.errors' }) ?? {}) as ScenarioErrors;
   const toggle = (source: ErrorSource) => (on: boolean) =>
-    setValue(p(source), (on ? JSON.parse(JSON.stringify(errorStart[source])) : undefined) as never, { shouldDirty: true });
+    setValue(p(source), (on ? JSON.parse(JSON.stringify(errorStart[source])) : undefined), { shouldDirty: true });
   const fullScale = (channel: 'inputFullScale' | 'outputFullScale') => errors.quantisation?.[channel];
   return (
     <View style={styles.fields}>
@@ -44,7 +45,7 @@ export function ErrorFields({ outputUnit }: { outputUnit: string }) {
                 { value: 'set', label: 'Set a range' },
               ]}
               value={typeof fullScale(channel) === 'number' ? 'set' : 'auto'}
-              onChange={(v) => setValue(p(`quantisation.${channel}`), (v === 'auto' ? 'auto' : 1) as never, { shouldDirty: true })}
+              onChange={(v) => setValue(p(`quantisation.${channel}`), (v === 'auto' ? 'auto' : 1), { shouldDirty: true })}
             />
             {typeof fullScale(channel) === 'number' ? (
               <NumberField control={control} name={p(`quantisation.${channel}`)} label="Range ±" unit={channel === 'inputFullScale' ? 'N' : outputUnit} />
@@ -86,7 +87,7 @@ function NoiseFields({ channel, label, unit, on, onToggle, spec }: NoiseProps) {
           { value: 'psd', label: 'Noise PSD level' },
         ]}
         value={asPsd ? 'psd' : 'snr'}
-        onChange={(v) => setValue(p(channel), (v === 'psd' ? { psd: 1e-6 } : { snrDb: 20 }) as never, { shouldDirty: true })}
+        onChange={(v) => setValue(p(channel), (v === 'psd' ? { psd: 1e-6 } : { snrDb: 20 }), { shouldDirty: true })}
       />
       {asPsd ? (
         <NumberField control={control} name={p(`${channel}.psd`)} label="Noise PSD" unit={unit} />

@@ -13,7 +13,8 @@ import { space } from '@/shared/ui/theme';
 import { excitationAs, excitationOptions, type ExcitationKind, type ScenarioFormValues } from './scenario-form-values';
 
 type Excitation = ScenarioInput['excitation'];
-const p = (rest: string) => `definition.excitation.${rest}` as never;
+/** A path under the excitation, as a literal type react-hook-form checks against the form's values. */
+const p = <R extends string>(rest: R) => `definition.excitation.${rest}` as const;
 
 export function ExcitationFields() {
   const { control, getValues, setValue, formState } = useFormContext<ScenarioFormValues>();
@@ -51,7 +52,7 @@ export function ExcitationFields() {
           { value: 'peakN', label: 'Peak force' },
         ]}
         value={levelKind}
-        onChange={(k) => k !== levelKind && setValue(p('level'), { [k]: value } as never, { shouldDirty: true })}
+        onChange={(k) => k !== levelKind && setValue(p('level'), k === 'rmsN' ? { rmsN: value } : { peakN: value }, { shouldDirty: true })}
         error={errorAt(formState.errors, 'definition.excitation.level')}
       />
       <NumberField control={control} name={p(`level.${levelKind}`)} label={levelKind === 'rmsN' ? 'RMS force over the record' : 'Largest force sample'} unit="N" />
@@ -62,8 +63,8 @@ export function ExcitationFields() {
 
 function KindFields({ kind }: { kind: ExcitationKind }) {
   const { control, setValue } = useFormContext<ScenarioFormValues>();
-  const sweep = useWatch({ control, name: p('sweep') }) as unknown as 'linear' | 'log' | undefined;
-  const doubleHit = useWatch({ control, name: p('doubleHit') }) as unknown as object | undefined;
+  const sweep = useWatch({ control, name: p('sweep') });
+  const doubleHit = useWatch({ control, name: p('doubleHit') });
   if (kind === 'random') return null;
   if (kind === 'burst-random') {
     return (
@@ -95,7 +96,7 @@ function KindFields({ kind }: { kind: ExcitationKind }) {
             { value: 'log', label: 'Logarithmic' },
           ]}
           value={sweep ?? 'linear'}
-          onChange={(v) => setValue(p('sweep'), v as never, { shouldDirty: true })}
+          onChange={(v) => setValue(p('sweep'), v, { shouldDirty: true })}
         />
       </>
     );
@@ -112,7 +113,7 @@ function KindFields({ kind }: { kind: ExcitationKind }) {
           { value: 'yes', label: 'Add a second hit' },
         ]}
         value={doubleHit ? 'yes' : 'no'}
-        onChange={(v) => setValue(p('doubleHit'), (v === 'yes' ? { delayS: 0.002, amplitudeRatio: 0.3 } : undefined) as never, { shouldDirty: true })}
+        onChange={(v) => setValue(p('doubleHit'), v === 'yes' ? { delayS: 0.002, amplitudeRatio: 0.3 } : undefined, { shouldDirty: true })}
       />
       {doubleHit ? (
         <>

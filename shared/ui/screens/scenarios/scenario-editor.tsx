@@ -31,7 +31,7 @@ export function ScenarioEditor({ labId, id, canWrite }: EditorProps) {
   );
 }
 
-const resolver = engineCheckedResolver<ScenarioFormValues>(scenarioFormSchema, (d) => parseScenario(d));
+const resolver = engineCheckedResolver(scenarioFormSchema, (d) => parseScenario(d));
 const startOptions = [
   { value: 'default', label: 'As the excitation suits' },
   { value: 'steady-state', label: 'Steady state' },
@@ -50,7 +50,7 @@ function ScenarioForm({ labId, record, canWrite }: { labId: string; record: Scen
   const start = useWatch({ control, name: 'definition.acquisition.start' });
 
   const onSave = handleSubmit((values) => {
-    const body = { note: values.note ?? '', description: values.definition.description ?? '', definition: values.definition as never };
+    const body = { note: values.note ?? '', description: values.definition.description ?? '', definition: values.definition };
     saver.save(body);
   });
   return (

@@ -47,7 +47,7 @@ export function SystemPicker({ labId, canWrite }: { labId: string; canWrite: boo
     setProblem(null);
     try {
       const record = await client.fetchQuery({ queryKey: systemsApi.keys.latest(labId, chosen), queryFn: ({ signal }) => systemsApi.fetchLatest(labId, chosen, signal) });
-      setValue('definition.system', record.definition as never, { shouldDirty: true, shouldValidate: false });
+      setValue('definition.system', record.definition, { shouldDirty: true, shouldValidate: false });
       setCopied(`Copied from ${record.name}, version ${record.version.version}`);
     } catch (err) {
       setProblem(err);

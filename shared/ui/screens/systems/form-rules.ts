@@ -42,20 +42,20 @@ export function definitionPath(field: string, dropPrefix?: string): (string | nu
  * A resolver for a create/update body: the zod schema, then `parse(body.definition)` (the engine's
  * parser), whose EngineInputError becomes an error on the named field.
  */
-export function engineCheckedResolver<T extends FieldValues>(
-  schema: z.ZodType,
+export function engineCheckedResolver<S extends z.ZodType<FieldValues, FieldValues>>(
+  schema: S,
   parse: (definition: unknown) => unknown,
   dropPrefix?: string,
-): Resolver<T> {
+): Resolver<z.input<S>, unknown, z.output<S>> {
   const checked = schema.superRefine((body, ctx) => {
     try {
-      parse((body as unknown as { definition: unknown }).definition);
+      parse(body.definition);
     } catch (err) {
       if (!(err instanceof EngineInputError)) throw err;
       ctx.addIssue({ code: 'custom', path: definitionPath(err.field, dropPrefix), message: engineRule(err) });
     }
   });
-  return zodResolver(checked as never, { error: (issue: Issue) => friendlyIssue(issue) } as never) as unknown as Resolver<T>;
+  return zodResolver(checked, { error: (issue: Issue) => friendlyIssue(issue) });
 }
 
 /** The message of the error at a dotted path of react-hook-form's errors, if any. */

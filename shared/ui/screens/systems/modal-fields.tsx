@@ -3,7 +3,7 @@
  * giving its strength — a real modal constant, a complex residue, or mode-shape values at the
  * force and response points with a modal mass (the three forms of the engine's modal schema).
  */
-import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
+import { useFieldArray, useFormContext, useWatch, type Path } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import type { ModeSpec } from '@/shared/engine/systems/schema';
 import { AppText, Button } from '@/shared/ui/components';
@@ -14,6 +14,8 @@ import { NumberField } from './number-field';
 import type { SystemFormValues } from './system-form-values';
 
 type Strength = 'modalConstant' | 'residue' | 'shape';
+/** The number fields of one mode, as paths under definition.modes.<i>. */
+type ModeField = 'naturalFrequencyHz' | 'dampingRatio' | 'modalConstant' | 'residue.re' | 'residue.im' | 'shape.atInput' | 'shape.atOutput' | 'shape.modalMassKg';
 const strengthOptions = [
   { value: 'modalConstant', label: 'Modal constant' },
   { value: 'residue', label: 'Complex residue' },
@@ -31,9 +33,9 @@ function withStrength(m: ModeSpec, strength: Strength): ModeSpec {
 
 export function ModalFields() {
   const { control, getValues, setValue, formState } = useFormContext<SystemFormValues>();
-  const { fields, append, remove } = useFieldArray({ control, name: 'definition.modes' as never });
-  const modes = useWatch({ control, name: 'definition.modes' as never }) as ModeSpec[] | undefined;
-  const name = (i: number, rest: string) => `definition.modes.${i}.${rest}` as never;
+  const { fields, append, remove } = useFieldArray({ control, name: 'definition.modes' });
+  const modes = useWatch({ control, name: 'definition.modes' });
+  const name = (i: number, rest: ModeField): Path<SystemFormValues> => `definition.modes.${i}.${rest}`;
   return (
     <View style={styles.fields}>
       <FieldError error={errorAt(formState.errors, 'definition.modes')} />
@@ -57,7 +59,7 @@ export function ModalFields() {
               label="Strength given as"
               options={strengthOptions}
               value={strength}
-              onChange={(next) => setValue(`definition.modes.${i}` as never, withStrength(getValues(`definition.modes.${i}` as never) as unknown as ModeSpec, next) as never, { shouldDirty: true })}
+              onChange={(next) => setValue(`definition.modes.${i}`, withStrength(getValues(`definition.modes.${i}`), next), { shouldDirty: true })}
               error={errorAt(formState.errors, `definition.modes.${i}.modalConstant`)}
             />
             {strength === 'modalConstant' ? (
@@ -94,7 +96,7 @@ export function ModalFields() {
         disabled={fields.length >= 40}
         onPress={() => {
           const last = modes?.[modes.length - 1];
-          append({ naturalFrequencyHz: (last?.naturalFrequencyHz ?? 50) * 1.5, dampingRatio: last?.dampingRatio ?? 0.01, modalConstant: 0.01 } as never);
+          append({ naturalFrequencyHz: (last?.naturalFrequencyHz ?? 50) * 1.5, dampingRatio: last?.dampingRatio ?? 0.01, modalConstant: 0.01 });
         }}
       />
     </View>

@@ -4,7 +4,7 @@
  * mass" extends the chain: the new mass hangs from the last one by a spring and a damper like the
  * last ones.
  */
-import { useController, useFormContext, useFormState, useWatch, type Control } from 'react-hook-form';
+import { useController, useFormContext, useFormState, useWatch, type Control, type Path } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import type { PhysicalSpec } from '@/shared/engine/systems/schema';
 import { AppText, Button } from '@/shared/ui/components';
@@ -22,9 +22,9 @@ function nodeOptions(n: number, withGround: boolean) {
   return withGround ? [{ value: 'ground', label: 'Ground' }, ...masses] : masses;
 }
 
-function NodeSelect({ control, name, label, n, withGround }: { control: Control<SystemFormValues>; name: string; label: string; n: number; withGround: boolean }) {
-  const { field } = useController({ control, name: name as never });
-  const { errors } = useFormState({ control, name: name as never });
+function NodeSelect({ control, name, label, n, withGround }: { control: Control<SystemFormValues>; name: Path<SystemFormValues>; label: string; n: number; withGround: boolean }) {
+  const { field } = useController({ control, name });
+  const { errors } = useFormState({ control, name });
   const value = field.value as NodeRef | undefined;
   return (
     <SelectField
@@ -83,7 +83,7 @@ export function PhysicalFields() {
     <View style={styles.fields}>
       <AppText variant="bodyStrong" role="heading" aria-level={3}>Masses</AppText>
       {spec.massesKg?.map((_, i) => (
-        <NumberField key={`m${i}`} control={control} name={`definition.massesKg.${i}` as never} label={`Mass ${i + 1}`} unit="kg" />
+        <NumberField key={`m${i}`} control={control} name={`definition.massesKg.${i}`} label={`Mass ${i + 1}`} unit="kg" />
       ))}
       <View style={styles.row}>
         <Button label="Add a mass" variant="secondary" compact disabled={n >= 20} onPress={addMass} />
@@ -107,9 +107,9 @@ export function PhysicalFields() {
                 </View>
                 <FieldError error={errorAt(formState.errors, `definition.${kind}.${i}.between`)} />
                 {kind === 'springs' ? (
-                  <NumberField control={control} name={`definition.springs.${i}.stiffnessNPerM` as never} label={`Stiffness of spring ${i + 1}`} unit="N/m" />
+                  <NumberField control={control} name={`definition.springs.${i}.stiffnessNPerM`} label={`Stiffness of spring ${i + 1}`} unit="N/m" />
                 ) : (
-                  <NumberField control={control} name={`definition.dampers.${i}.dampingNsPerM` as never} label={`Damping of damper ${i + 1}`} unit="N·s/m" />
+                  <NumberField control={control} name={`definition.dampers.${i}.dampingNsPerM`} label={`Damping of damper ${i + 1}`} unit="N·s/m" />
                 )}
                 <Button label={`Remove ${noun.toLowerCase()} ${i + 1}`} variant="secondary" compact disabled={spec[kind].length <= 1} onPress={() => removeElement(kind, i)} />
               </View>

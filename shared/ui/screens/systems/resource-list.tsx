@@ -34,7 +34,7 @@ export function ResourceList(props: ResourceListProps) {
   const { title, eyebrow, intro, noun, basePath, query, search, onSearch, offset, onOffset, activeId, canWrite, empty } = props;
   const router = useRouter();
   const newAction = canWrite ? (
-    <Button label={`New ${noun}`} variant={activeId ? 'secondary' : 'primary'} compact onPress={() => router.push(`${basePath}/new` as never)} />
+    <Button label={`New ${noun}`} variant={activeId ? 'secondary' : 'primary'} compact onPress={() => router.push(`${basePath}/new`)} />
   ) : null;
   return (
     <View style={styles.list}>

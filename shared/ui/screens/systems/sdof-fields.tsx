@@ -14,7 +14,7 @@ const givenAs = [
 
 export function SdofFields() {
   const { control, getValues, setValue } = useFormContext<SystemFormValues>();
-  const massKg = useWatch({ control, name: 'definition.massKg' as never });
+  const massKg = useWatch({ control, name: 'definition.massKg' });
   const form = massKg !== undefined ? 'physical' : 'modal';
   return (
     <View style={styles.fields}>
@@ -29,16 +29,16 @@ export function SdofFields() {
       />
       {form === 'modal' ? (
         <>
-          <NumberField control={control} name={'definition.naturalFrequencyHz' as never} label="Natural frequency fₙ" unit="Hz" />
-          <NumberField control={control} name={'definition.dampingRatio' as never} label="Damping ratio ζ" unit="" hint="Fraction of critical: 0.01 is 1 %" />
+          <NumberField control={control} name={'definition.naturalFrequencyHz'} label="Natural frequency fₙ" unit="Hz" />
+          <NumberField control={control} name={'definition.dampingRatio'} label="Damping ratio ζ" unit="" hint="Fraction of critical: 0.01 is 1 %" />
         </>
       ) : (
         <>
-          <NumberField control={control} name={'definition.massKg' as never} label="Mass m" unit="kg" />
-          <NumberField control={control} name={'definition.dampingNsPerM' as never} label="Damping c" unit="N·s/m" hint="Below critical damping 2·√(k·m)" />
+          <NumberField control={control} name={'definition.massKg'} label="Mass m" unit="kg" />
+          <NumberField control={control} name={'definition.dampingNsPerM'} label="Damping c" unit="N·s/m" hint="Below critical damping 2·√(k·m)" />
         </>
       )}
-      <NumberField control={control} name={'definition.stiffnessNPerM' as never} label="Stiffness k" unit="N/m" />
+      <NumberField control={control} name={'definition.stiffnessNPerM'} label="Stiffness k" unit="N/m" />
     </View>
   );
 }

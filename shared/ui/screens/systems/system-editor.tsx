@@ -32,7 +32,7 @@ export function SystemEditor({ labId, id, canWrite }: EditorProps) {
   );
 }
 
-const resolver = engineCheckedResolver<SystemFormValues>(systemFormSchema, (d) => parseSystemSpec(d), 'system');
+const resolver = engineCheckedResolver(systemFormSchema, (d) => parseSystemSpec(d), 'system');
 
 function valuesOf(record: SystemRecord | null): SystemFormValues {
   if (!record) return { name: '', description: '', note: '', definition: startingDefinition('sdof') };

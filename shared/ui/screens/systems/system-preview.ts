@@ -3,7 +3,7 @@
  * exact FRF on a frequency grid that resolves every peak, the facts of each mode and the
  * anti-resonances. Pure; returns the engine's complaint instead of throwing.
  */
-import { buildSystem, type LinearSystem } from '@/shared/engine/systems';
+import { buildSystem, parseSystemSpec, type LinearSystem } from '@/shared/engine/systems';
 import { EngineInputError } from '@/shared/engine/errors';
 import type { ComplexArray, ModeFacts } from '@/shared/engine/types';
 import { engineRule } from './form-rules';
@@ -38,7 +38,7 @@ export function previewGrid(naturalHz: readonly number[], bandwidthHz: readonly 
 export function previewSystem(definition: unknown): SystemPreview {
   let system: LinearSystem;
   try {
-    system = buildSystem(definition as never);
+    system = buildSystem(parseSystemSpec(definition));
   } catch (err) {
     if (err instanceof EngineInputError) return { ok: false, field: err.field, message: `${err.field.replace(/^system\.?/, '') || 'system'}: ${engineRule(err)}` };
     return { ok: false, field: '', message: err instanceof Error ? err.message : 'The system could not be built.' };

@@ -8,10 +8,10 @@ import { useRouter } from 'expo-router';
 import { useState } from 'react';
 import type { createResourceHooks, ResourceVersionOf, SaveRequest } from '@/shared/ui/api/versioned-resource';
 
-type ResourceHooks<D> = ReturnType<typeof createResourceHooks<D>>;
+type ResourceHooks<D, I> = ReturnType<typeof createResourceHooks<D, I>>;
 
-export function useVersionedSave<D>(
-  hooks: ResourceHooks<D>,
+export function useVersionedSave<D, I = D>(
+  hooks: ResourceHooks<D, I>,
   labId: string,
   record: ResourceVersionOf<D> | null,
   basePath: string,
@@ -24,11 +24,11 @@ export function useVersionedSave<D>(
   const versions = hooks.useVersions(labId, record?.id ?? '');
   const useVersion = (v: number | null) => hooks.useVersion(labId, record?.id ?? '', v);
 
-  const save = (body: SaveRequest<D>) => {
+  const save = (body: SaveRequest<I>) => {
     const done = (saved: ResourceVersionOf<D>) => {
       setSavedVersion(saved.version.version);
       onSaved(saved);
-      if (!record) router.replace(`${basePath}/${saved.id}` as never);
+      if (!record) router.replace(`${basePath}/${saved.id}`);
     };
     if (record) update.mutate({ ...body, baseVersion: record.latestVersion }, { onSuccess: done });
     else create.mutate(body, { onSuccess: done });

@@ -8,7 +8,7 @@ export const WHAT_IF_HREF = '/bench/what-if';
 
 export function WhatIfLink() {
   return (
-    <Link href={WHAT_IF_HREF as never} asChild>
+    <Link href={WHAT_IF_HREF} asChild>
       <Pressable role="link" accessibilityLabel="Open the what-if bench" testID="what-if-link" style={styles.outer}>
         {({ hovered, pressed }: { hovered?: boolean; pressed: boolean }) => (
           <View style={[styles.link, (hovered || pressed) && styles.hover]}>
