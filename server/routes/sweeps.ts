@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { startSweepSchema, sweepListSchema, sweepResultsSchema, sweepSchema } from '@/shared/api/sweeps';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
 import { AppError } from '../errors';
 import type { StudyQueue } from '../jobs/scheduler';
