@@ -25,6 +25,11 @@ export const COMMANDS: { name: string; summary: string; load: () => CliCommand }
     load: () => (require('./commands/verify') as typeof import('./commands/verify')).verifyCommand,
   },
   {
+    name: 'sweep',
+    summary: 'vary one or two settings over a grid and name the cheapest passing point',
+    load: () => (require('./commands/sweep') as typeof import('./commands/sweep')).sweepCommand,
+  },
+  {
     name: 'score',
     summary: 'score an estimated FRF against the exact FRF (dB, degrees, relative error, modes)',
     load: () => (require('./commands/score') as typeof import('./commands/score')).scoreCommand,

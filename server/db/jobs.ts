@@ -25,9 +25,9 @@ export async function enqueueJob(trx: Db, type: string, payload: unknown, at = D
   return Number(id);
 }
 
-/** Jobs of a type still to do (queued, or running when the server stopped), oldest first. */
-export function pendingJobs(db: Db, type: string): Promise<JobRow[]> {
-  return db('jobs').where({ type }).whereIn('status', ['queued', 'running']).orderBy('id');
+/** Jobs of a type (or types) still to do (queued, or running when the server stopped), oldest first. */
+export function pendingJobs(db: Db, type: string | readonly string[]): Promise<JobRow[]> {
+  return db('jobs').whereIn('type', typeof type === 'string' ? [type] : [...type]).whereIn('status', ['queued', 'running']).orderBy('id');
 }
 
 /** Marks a job running; false when it is no longer queued or running (cancelled meanwhile). */

@@ -19,6 +19,8 @@ import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
 import type { RunExecutor } from './run-task';
 import { runStudy, type StudyRunHooks } from './study-runner';
+import { runSweepJob } from './sweep-runner';
+import { updateSweep } from '../db/sweeps';
 
 export interface StudyQueue {
   /** Wakes the scheduler after a study and its job were committed. */
@@ -48,6 +50,8 @@ export interface SchedulerDeps {
 }
 
 export const STUDY_JOB = 'study';
+/** A sweep study (sweep-runner.ts): the same queue, pool, progress events and resumption. */
+export const SWEEP_JOB = 'sweep';
 
 export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
   const events = new EventEmitter();
@@ -74,10 +78,12 @@ export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
   async function drain() {
     do {
       wake = false;
-      const jobs = await pendingJobs(deps.db, STUDY_JOB);
+      const jobs = await pendingJobs(deps.db, [STUDY_JOB, SWEEP_JOB]);
       for (const job of jobs) {
         if (shutdown.signal.aborted) return;
-        const { studyId } = JSON.parse(job.payload) as { studyId: string };
+        const isSweep = job.type === SWEEP_JOB;
+        const payload = JSON.parse(job.payload) as { studyId?: string; sweepId?: string };
+        const studyId = (isSweep ? payload.sweepId : payload.studyId) ?? '';
         if (!(await claimJob(deps.db, job.id))) continue;
         try {
           let done = false;
@@ -85,7 +91,7 @@ export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
             done = true;
             await finishJob(deps.db, job.id, o === 'finished' ? 'done' : o);
           };
-          const outcome = await runStudy(deps, studyId, { ...hooks, settled });
+          const outcome = isSweep ? await runSweepJob(deps, studyId, { ...hooks, settled }) : await runStudy(deps, studyId, { ...hooks, settled });
           if (outcome === 'interrupted') return; // shutting down: the job stays running for the next start
           if (!done) await settled(outcome);
         } catch (err) {
@@ -94,7 +100,8 @@ export function createStudyScheduler(deps: SchedulerDeps): StudyScheduler {
           const message = String((err as Error).message ?? err);
           await finishJob(deps.db, job.id, 'failed', message);
           // The study must not stay "running" for ever: it ends as failed with the reason.
-          await updateStudy(deps.db, studyId, { status: 'failed', error: `The study could not be completed: ${message}`, finished_at: Date.now() });
+          const failure = { status: 'failed' as const, error: `The ${isSweep ? 'sweep' : 'study'} could not be completed: ${message}`, finished_at: Date.now() };
+          await (isSweep ? updateSweep(deps.db, studyId, failure) : updateStudy(deps.db, studyId, failure));
           const last = live.get(studyId);
           hooks.end(studyId, { ...(last ?? { done: 0, failed: 0, total: 0, currentScenario: null }), status: 'failed', currentScenario: null, etaSeconds: null }, message);
         }

@@ -18,6 +18,7 @@ import { systemRoutes } from './systems';
 import { scenarioRoutes } from './scenarios';
 import { recipeRoutes } from './recipes';
 import { studyRoutes } from './studies';
+import { sweepRoutes } from './sweeps';
 import { uploadRoutes } from './uploads';
 import { exportRoutes } from './exports';
 
@@ -34,6 +35,7 @@ export function v1Routes(deps: AppDeps): Router {
   r.use(scenarioRoutes(deps));
   r.use(recipeRoutes(deps));
   r.use(studyRoutes(deps));
+  r.use(sweepRoutes(deps));
   r.use(uploadRoutes(deps));
   r.use(exportRoutes(deps));
   r.use(reviewRoutes(deps));

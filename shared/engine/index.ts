@@ -50,3 +50,5 @@ export * from './preflight/check';
 export { MIN_EFFECTIVE_AVERAGES, blocksForEffectiveAverages } from './preflight/warnings';
 export { stationaryBlocks } from './preflight/figures';
 export * from './delay-bias';
+export * from './sweep';
+export * from './sweep-result';
