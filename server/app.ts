@@ -7,6 +7,7 @@ import path from 'node:path';
 import express, { type ErrorRequestHandler, type Express } from 'express';
 import helmet from 'helmet';
 import type { Auth } from './auth/lucia';
+import type { Clock } from './clock';
 import { checkOrigin, loadSession } from './auth/middleware';
 import type { Config } from './config';
 import type { Db } from './db/knex';
@@ -23,6 +24,8 @@ export interface AppDeps {
   logger: Logger;
   mailer: Mailer;
   version: string;
+  /** Time for rules that depend on elapsed time (tests set it). */
+  clock: Clock;
 }
 
 export function createApp(deps: AppDeps): Express {

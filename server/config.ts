@@ -34,6 +34,8 @@ const envSchema = z.object({
   // that hits it can abort the whole process instead of failing its run (docs/reliability.md).
   STUDY_WORKER_HEAP_MB: z.coerce.number().int().min(96).max(65536).optional(),
   WEB_DIR: z.string().min(1).default('dist/web'),
+  // Days after holding the admin role in a lab before an account may decide its reviews.
+  APPROVAL_ADMIN_COOLING_DAYS: z.coerce.number().int().min(0).max(3650).default(30),
 });
 
 export interface Config {
@@ -56,6 +58,8 @@ export interface Config {
   /** Old-generation heap limit of each study worker thread, MB; null = V8's default. */
   studyWorkerHeapMb: number | null;
   webDir: string;
+  /** Days after holding the admin role in a lab before an account may decide its reviews. */
+  approvalAdminCoolingDays: number;
 }
 
 export class ConfigError extends Error {}
@@ -89,5 +93,6 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     studyWorkers: e.STUDY_WORKERS,
     studyWorkerHeapMb: e.STUDY_WORKER_HEAP_MB ?? null,
     webDir: path.resolve(cwd, e.WEB_DIR),
+    approvalAdminCoolingDays: e.APPROVAL_ADMIN_COOLING_DAYS,
   };
 }

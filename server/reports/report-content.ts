@@ -4,17 +4,18 @@
  * depends on the time it is made, so the same stored data always give the same content and the
  * same sha256.
  */
-import type { ReportContent, Scope, Signature } from '@/shared/api/approval';
+import type { ReportContent, Scope } from '@/shared/api/approval';
 import { parseRecipe } from '@/shared/engine/recipe';
 import { SEED_RULE, studySeed } from '@/shared/engine/study';
 import { ENGINE_VERSION } from '@/shared/engine/version';
-import { findDecision, findSubmission, submissionWithStudy, versionState, type DecisionRow } from '../db/approval';
+import { findDecision, findSubmission, submissionWithStudy, versionState } from '../db/approval';
 import type { Db } from '../db/knex';
 import { findLab } from '../db/members';
 import { findStudy, studyScenarios } from '../db/studies';
 import { findResource, findVersion } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import { scenarioOf } from '../services/scenario-definition';
+import { signatureOf } from '../services/signature';
 import { getStandard } from '../services/standards';
 import { getStudyResults } from '../services/study-results';
 import { evidenceDocument, evidenceSha256 } from './evidence';
@@ -28,18 +29,6 @@ export const CAUTIONS = [
 ];
 
 const verdict = (pass: boolean) => (pass ? 'PASS' : 'FAIL') as 'PASS' | 'FAIL';
-
-function signatureOf(d: DecisionRow): Signature {
-  return {
-    reviewer: { id: d.reviewer_id, displayName: d.reviewer_name },
-    meaning: d.meaning ?? '',
-    comment: d.comment,
-    signedAt: Number(d.decided_at),
-    engineVersion: d.engine_version,
-    evidenceSha256: d.evidence_sha256,
-    signatureSha256: d.signature_sha256,
-  };
-}
 
 async function labOf(db: Db, labId: string) {
   const lab = await findLab(db, labId);
@@ -137,7 +126,7 @@ export async function studyReportContent(db: Db, labId: string, studyId: string)
     processing: recipeWords(recipe),
     acceptanceCriteria: acceptanceWords(recipe),
     justification: submission?.justification ?? null,
-    signature: decision?.decision === 'approved' ? signatureOf(decision) : null,
+    signature: decision?.decision === 'approved' ? await signatureOf(db, decision) : null,
     standard: null,
     evidenceCheck: null,
     engineVersion: ENGINE_VERSION,
