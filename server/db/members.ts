@@ -130,3 +130,8 @@ export async function listLabMail(db: Db, labId: string, page: { limit: number; 
     .select('*');
   return { rows, total: Number(count?.n ?? 0) };
 }
+
+/** The display names of a lab's members. */
+export function labDisplayNames(db: Db, labId: string): Promise<{ user_id: string; display_name: string }[]> {
+  return db('memberships').join('users', 'users.id', 'memberships.user_id').where('memberships.lab_id', labId).select('users.id as user_id', 'users.display_name');
+}

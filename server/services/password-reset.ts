@@ -15,7 +15,7 @@ import { findUserByEmail, findUserById } from '../db/users';
 import { AppError } from '../errors';
 import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
-import { recordAudit } from './audit';
+import { recordAccountEvent } from './account-events';
 import { newToken, sameHash, tokenHash } from './invitations';
 import type { AttemptLimiter } from './sign-in';
 
@@ -46,7 +46,7 @@ export async function requestPasswordReset(deps: Deps, email: string, client: { 
   const now = Date.now();
   await deps.db.transaction(async (trx) => {
     await insertPasswordReset(trx, { id: randomUUID(), user_id: user.id, token_hash: hash, created_at: now, expires_at: now + RESET_MINUTES * 60_000, used_at: null });
-    await recordAudit(trx, { labId: null, actorUserId: null, action: 'auth.password-reset-requested', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
+    await recordAccountEvent(trx, user.id, { actorUserId: null, action: 'auth.password-reset-requested', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
   });
   const link = `${deps.publicUrl}/reset-password?token=${token}`;
   // Not awaited: the answer must not wait on SMTP, or its timing would reveal that the address exists.
@@ -54,6 +54,7 @@ export async function requestPasswordReset(deps: Deps, email: string, client: { 
     .send({
       to: user.email,
       kind: 'password-reset',
+      secrets: [link],
       subject: 'Reset your Plumbline password',
       text:
         `Someone asked to reset the password of your Plumbline account (${user.email}).\n\n` +
@@ -77,7 +78,7 @@ export async function confirmPasswordReset(deps: Pick<Deps, 'db' | 'auth'>, toke
   await deps.db.transaction(async (trx) => {
     if (!(await spendPasswordReset(trx, row, Date.now()))) throw invalid();
     await setPasswordHash(trx, user.id, passwordHash);
-    await recordAudit(trx, { labId: null, actorUserId: user.id, action: 'auth.password-reset', targetType: 'user', targetId: user.id });
+    await recordAccountEvent(trx, user.id, { actorUserId: user.id, action: 'auth.password-reset', targetType: 'user', targetId: user.id });
   });
   await deps.auth.invalidateUserSessions(user.id);
 }
