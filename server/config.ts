@@ -46,6 +46,8 @@ const envSchema = z.object({
   AUDIT_KEY: z.string().min(32, 'must be at least 32 characters').optional(),
   AUDIT_KEY_FILE: z.string().min(1).optional(),
   AUDIT_CHECKPOINT_FILE: z.string().min(1).optional(),
+  // Days after holding the admin role in a lab before an account may decide its reviews.
+  APPROVAL_ADMIN_COOLING_DAYS: z.coerce.number().int().min(0).max(3650).default(30),
 });
 
 export interface Config {
@@ -72,6 +74,8 @@ export interface Config {
   webDir: string;
   /** The audit key (text, or null to use keyFile) and the checkpoint file, outside the database. */
   audit: { key: string | null; keyFile: string; checkpointFile: string };
+  /** Days after holding the admin role in a lab before an account may decide its reviews. */
+  approvalAdminCoolingDays: number;
 }
 
 export class ConfigError extends Error {}
@@ -114,6 +118,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
       keyFile: path.resolve(dataDir, e.AUDIT_KEY_FILE ?? 'audit-key'),
       checkpointFile: path.resolve(dataDir, e.AUDIT_CHECKPOINT_FILE ?? 'audit-checkpoints.log'),
     },
+    approvalAdminCoolingDays: e.APPROVAL_ADMIN_COOLING_DAYS,
   };
 }
 

@@ -4,6 +4,7 @@
  * Express app (and so that nothing has to augment it from elsewhere).
  */
 import type { Auth } from './auth/lucia';
+import type { Clock } from './clock';
 import type { Config } from './config';
 import type { Db } from './db/knex';
 import type { StudyQueue } from './jobs/scheduler';
@@ -17,6 +18,8 @@ export interface AppDeps {
   logger: Logger;
   mailer: Mailer;
   version: string;
+  /** Time for rules that depend on elapsed time (tests set it). */
+  clock: Clock;
   /** Background studies; absent when the server runs without a scheduler. */
   studyQueue?: StudyQueue;
 }

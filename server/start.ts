@@ -7,6 +7,7 @@ import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import { createApp } from './app';
 import { createAuth } from './auth/lucia';
+import { systemClock, type Clock } from './clock';
 import type { Config } from './config';
 import { createDb, migrate, type Db } from './db/knex';
 import { createLogger, type Logger } from './logger';
@@ -32,7 +33,7 @@ export interface RunningServer {
   close(): Promise<void>;
 }
 
-export async function startServer(config: Config, logger = createLogger(config.logLevel)): Promise<RunningServer> {
+export async function startServer(config: Config, logger = createLogger(config.logLevel), clock: Clock = systemClock): Promise<RunningServer> {
   const db = createDb(config.databaseFile);
   await migrate(db);
   try {
@@ -57,7 +58,7 @@ export async function startServer(config: Config, logger = createLogger(config.l
 
   const auth = createAuth(db, { idleHours: config.session.idleHours, secure: config.publicUrl.startsWith('https:') });
   const studies = createStudyScheduler({ db, logger, mailer, executor: createPoolExecutor(config.studyWorkers, config.studyWorkerHeapMb) });
-  const app = createApp({ config, db, auth, logger, mailer, version: APP_VERSION, studyQueue: studies });
+  const app = createApp({ config, db, auth, logger, mailer, version: APP_VERSION, studyQueue: studies, clock });
   const server = http.createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);

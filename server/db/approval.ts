@@ -38,11 +38,6 @@ export async function moveVersionState(trx: Db, recipeId: string, version: numbe
   return n === 1;
 }
 
-/** The distinct authors of versions 1…version of a recipe (who wrote what this version holds). */
-export async function versionAuthors(db: Db, recipeId: string, version: number): Promise<{ author_id: string; version: number }[]> {
-  return db('recipe_versions').where('recipe_id', recipeId).andWhere('version', '<=', version).orderBy('version').select('author_id', 'version');
-}
-
 export interface SubmissionRow {
   id: string;
   lab_id: string;
@@ -186,6 +181,8 @@ export interface DecisionRow {
   engine_version: string;
   evidence_sha256: string;
   signature_sha256: string;
+  /** The admin cooling period (days) the decision was checked against; null before it was kept. */
+  admin_cooling_days: number | null;
 }
 
 export function findDecision(db: Db, submissionId: string): Promise<DecisionRow | undefined> {
@@ -231,4 +228,18 @@ export function submissionWithStudy(db: Db, labId: string, studyId: string): Pro
     .where({ 's.lab_id': labId, 'e.study_id': studyId })
     .orderByRaw("case when d.decision = 'approved' then 0 else 1 end, s.submitted_at desc")
     .first(submissionColumns(db));
+}
+
+/** Who wrote each version of a recipe, every version (earlier and later ones alike). */
+export function recipeAuthors(db: Db, recipeId: string): Promise<{ author_id: string; version: number }[]> {
+  return db('recipe_versions').where('recipe_id', recipeId).orderBy('version').select('author_id', 'version');
+}
+
+/** The evidence studies of a submission a user started (name and start time). */
+export function evidenceStudiesStartedBy(db: Db, submissionId: string, userId: string): Promise<{ id: string; name: string }[]> {
+  return db({ e: 'review_evidence' })
+    .join({ s: 'studies' }, 's.id', 'e.study_id')
+    .where({ 'e.submission_id': submissionId, 's.created_by': userId })
+    .orderBy('e.position')
+    .select('s.id', 's.name');
 }

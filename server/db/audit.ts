@@ -96,3 +96,17 @@ export async function chainLabs(db: Db): Promise<(string | null)[]> {
 export function chainHead(db: Db, labId: string | null): Promise<AuditRow | undefined> {
   return chain(db, labId).orderBy('id', 'desc').first('*');
 }
+
+export type AuditRowWithPeople = AuditRow & { actor_name: string | null; actor_email: string | null; target_name: string | null; target_email: string | null };
+
+/** A lab's whole chain in order, with the names and e-mails of the actor and of a user target. */
+export function chainRowsWithPeople(db: Db, labId: string): Promise<AuditRowWithPeople[]> {
+  return db('audit_events')
+    .where('audit_events.lab_id', labId)
+    .leftJoin({ a: 'users' }, 'a.id', 'audit_events.actor_user_id')
+    .leftJoin({ t: 'users' }, function () {
+      this.on('t.id', '=', 'audit_events.target_id').andOnVal('audit_events.target_type', '=', 'user');
+    })
+    .orderBy('audit_events.id', 'asc')
+    .select('audit_events.*', 'a.display_name as actor_name', 'a.email as actor_email', 't.display_name as target_name', 't.email as target_email');
+}

@@ -122,3 +122,15 @@ export async function spendPasswordReset(db: Db, row: PasswordResetRow, now: num
 export function closeOpenPasswordResets(db: Db, userId: string, now: number): Promise<number> {
   return db('password_resets').where({ user_id: userId }).whereNull('used_at').where('expires_at', '>', now).update({ used_at: now });
 }
+
+/** The invitation by which a user joined a lab (the newest accepted one), with its inviter. */
+export function acceptedInvitationOf(db: Db, labId: string, userId: string): Promise<
+  { invited_by: string | null; inviter_name: string | null; inviter_email: string | null; created_at: number; used_at: number } | undefined
+> {
+  return db({ i: 'invitations' })
+    .leftJoin({ u: 'users' }, 'u.id', 'i.invited_by')
+    .where({ 'i.lab_id': labId, 'i.accepted_user_id': userId })
+    .whereNotNull('i.used_at')
+    .orderBy('i.used_at', 'desc')
+    .first('i.invited_by', 'u.display_name as inviter_name', 'u.email as inviter_email', 'i.created_at', 'i.used_at');
+}

@@ -2,6 +2,7 @@
 import type { Role } from '@/shared/api/auth';
 import type { MemberListQuery } from '@/shared/api/people';
 import type { Db } from './knex';
+import { insertRoleChange } from './role-history';
 
 export interface MemberRow {
   user_id: string;
@@ -69,12 +70,16 @@ export async function countAdmins(db: Db, labId: string): Promise<number> {
   return Number(row?.n ?? 0);
 }
 
-export async function setMemberRole(db: Db, labId: string, userId: string, role: Role): Promise<void> {
-  await db('memberships').where({ lab_id: labId, user_id: userId }).update({ role });
+/** Changes a member's role and records it in the role history (who, when, from what). */
+export async function setMemberRole(db: Db, c: { labId: string; userId: string; from: Role; to: Role; by: string; at: number }): Promise<void> {
+  await db('memberships').where({ lab_id: c.labId, user_id: c.userId }).update({ role: c.to });
+  await insertRoleChange(db, c);
 }
 
-export async function deleteMembership(db: Db, labId: string, userId: string): Promise<void> {
-  await db('memberships').where({ lab_id: labId, user_id: userId }).delete();
+/** Removes a member; the role history keeps that they left (to_role NULL). */
+export async function deleteMembership(db: Db, c: { labId: string; userId: string; from: Role; by: string; at: number }): Promise<void> {
+  await db('memberships').where({ lab_id: c.labId, user_id: c.userId }).delete();
+  await insertRoleChange(db, { ...c, to: null });
 }
 
 /** Any user with this e-mail, disabled ones included (e-mails are unique across accounts). */
@@ -130,4 +135,9 @@ export async function listLabMail(db: Db, labId: string, page: { limit: number; 
     .offset(page.offset)
     .select('*');
   return { rows, total: Number(count?.n ?? 0) };
+}
+
+/** The display names of a lab's members. */
+export function labDisplayNames(db: Db, labId: string): Promise<{ user_id: string; display_name: string }[]> {
+  return db('memberships').join('users', 'users.id', 'memberships.user_id').where('memberships.lab_id', labId).select('users.id as user_id', 'users.display_name');
 }

@@ -2,6 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import type { Role } from '@/shared/api/auth';
 import type { Db } from './knex';
+import { insertRoleChange } from './role-history';
 
 export interface UserRow {
   id: string;
@@ -49,8 +50,11 @@ export async function insertUser(
   return id;
 }
 
-export async function addMembership(db: Db, m: { labId: string; userId: string; role: Role }): Promise<void> {
-  await db('memberships').insert({ lab_id: m.labId, user_id: m.userId, role: m.role, created_at: Date.now() });
+/** Adds a member and records the join in the role history (`by`: who granted it; null = the operator). */
+export async function addMembership(db: Db, m: { labId: string; userId: string; role: Role; by?: string | null; at?: number }): Promise<void> {
+  const at = m.at ?? Date.now();
+  await db('memberships').insert({ lab_id: m.labId, user_id: m.userId, role: m.role, created_at: at });
+  await insertRoleChange(db, { labId: m.labId, userId: m.userId, from: null, to: m.role, by: m.by ?? null, at });
 }
 
 export function findUserById(db: Db, id: string): Promise<UserRow | undefined> {
@@ -60,4 +64,9 @@ export function findUserById(db: Db, id: string): Promise<UserRow | undefined> {
 /** Every account's e-mail and password hash (the production start-up check reads them). */
 export function listPasswordHashes(db: Db): Promise<{ email: string; password_hash: string | null }[]> {
   return db('users').select('email', 'password_hash');
+}
+
+/** A user by id, disabled ones included (a signature names its signer for good). */
+export function findAnyUserById(db: Db, id: string): Promise<UserRow | undefined> {
+  return db('users').where({ id }).first();
 }

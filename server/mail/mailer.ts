@@ -1,4 +1,8 @@
-/** Sends mail over SMTP (nodemailer) and keeps every message in the outbox table. */
+/**
+ * Sends mail over SMTP (nodemailer) and keeps every message in the outbox table. A single-use link
+ * (an invitation or a password reset) goes to SMTP only: the stored copy has it withheld, so no
+ * one can read a usable token in the database, its backups or the lab's sent-mail view.
+ */
 import nodemailer from 'nodemailer';
 import type { Db } from '../db/knex';
 import { markMail, queueMail } from '../db/outbox';
@@ -10,6 +14,20 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   kind: string;
+  /** Parts of `text` that only the recipient may see (single-use links); withheld in the stored copy. */
+  secrets?: string[];
+}
+
+export const WITHHELD_LINK = '[link withheld: only the recipient received it]';
+
+/** Any single-use link still in a text, as a pattern (a safety net behind `secrets`). */
+const TOKEN_LINK = /\S*[?&]token=[A-Za-z0-9_-]+\S*/g;
+
+/** The text as stored and shown: each secret, and any link carrying a token, withheld. */
+export function storedCopy(text: string, secrets: string[] = []): string {
+  let out = text;
+  for (const secret of secrets) if (secret) out = out.split(secret).join(WITHHELD_LINK);
+  return out.replace(TOKEN_LINK, WITHHELD_LINK);
 }
 
 export interface Mailer {
@@ -32,7 +50,7 @@ export function createMailer(
   });
   return {
     async send(mail) {
-      const id = await queueMail(deps.db, mail);
+      const id = await queueMail(deps.db, { ...mail, text: storedCopy(mail.text, mail.secrets) });
       try {
         await transport.sendMail({ from, to: mail.to, subject: mail.subject, text: mail.text });
         await markMail(deps.db, id, { sent: true });

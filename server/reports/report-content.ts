@@ -10,13 +10,14 @@ import { decisionRuleWords } from '@/shared/engine/scores/decision-rules';
 import { parseRecipe } from '@/shared/engine/recipe';
 import { SEED_RULE, studySeed } from '@/shared/engine/study';
 import { ENGINE_VERSION } from '@/shared/engine/version';
-import { findDecision, findSubmission, submissionWithStudy, versionState, type DecisionRow } from '../db/approval';
+import { findDecision, findSubmission, submissionWithStudy, versionState } from '../db/approval';
 import type { Db } from '../db/knex';
 import { findLab } from '../db/members';
 import { findStudy, studyScenarios } from '../db/studies';
 import { findResource, findVersion } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import { scenarioOf } from '../services/scenario-definition';
+import { signatureOf } from '../services/signature';
 import { getStandard } from '../services/standards';
 import { getStudyResults } from '../services/study-results';
 import { evidenceDocument, evidenceSha256 } from '../services/evidence';
@@ -65,18 +66,6 @@ function conformityStatement(recipe: { name: string; version: number }, scenario
     return `${c.label}: ${observed}${u} against ${c.id === 'coverage' || c.id === 'min-coherence' ? '≥' : '≤'} ${sig(c.limit)} ${c.unit}`.trim() + ` by ${decisionRuleWords(c.rule)} — ${decision.toUpperCase()}${riskWords}`;
   });
   return `Statement of conformity for scenario "${scenario}", ${seeds}, against the specification of recipe "${recipe.name}" version ${recipe.version}. ${each.join('; ')}. The uncertainty is the Monte Carlo uncertainty of each figure over the seeds (bootstrap, fixed seed); the statement covers these simulated results only.`;
-}
-
-function signatureOf(d: DecisionRow): Signature {
-  return {
-    reviewer: { id: d.reviewer_id, displayName: d.reviewer_name },
-    meaning: d.meaning ?? '',
-    comment: d.comment,
-    signedAt: Number(d.decided_at),
-    engineVersion: d.engine_version,
-    evidenceSha256: d.evidence_sha256,
-    signatureSha256: d.signature_sha256,
-  };
 }
 
 async function labOf(db: Db, labId: string) {
@@ -177,7 +166,7 @@ export async function studyReportContent(db: Db, labId: string, studyId: string)
     studies,
     settings: settingsSummary(entry, recipe, await studySampleRates(db, [studyId])),
     justification: submission?.justification ?? null,
-    signature: decision?.decision === 'approved' ? signatureOf(decision) : null,
+    signature: decision?.decision === 'approved' ? await signatureOf(db, decision) : null,
     standard: null,
     evidenceCheck: null,
     engineVersion: ENGINE_VERSION,

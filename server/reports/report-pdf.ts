@@ -202,13 +202,16 @@ export function renderReportPdf(record: ReportRecord, content: ReportContent, tr
   heading(doc, 'Signature');
   const sig = content.signature;
   if (sig) {
-    field(doc, 'signed by', sig.reviewer.displayName);
+    field(doc, 'signed by', sig.signer.displayName);
+    field(doc, 'signer e-mail', sig.signer.email);
+    field(doc, 'signer in this lab', sig.signer.origin.text);
     field(doc, 'meaning', sig.meaning);
     field(doc, 'comment', sig.comment || '(none)');
     field(doc, 'signed at', iso(sig.signedAt));
     field(doc, 'engine at signing', sig.engineVersion, true);
     field(doc, 'evidence sha256', sig.evidenceSha256, true);
     field(doc, 'signature sha256', sig.signatureSha256, true);
+    field(doc, 'independence rule', sig.rule);
   } else para(doc, 'Not signed: this study is not the evidence of an approved standard.');
   if (content.standard) {
     heading(doc, 'The standard');

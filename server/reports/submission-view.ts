@@ -1,40 +1,11 @@
 /**
- * API views of review submissions and decisions, and the independence rules a decision must pass
- * (who may not decide a submission, and why), as plain functions over stored rows.
+ * API views of review submissions and decisions, and the refusals that are not about independence
+ * (a decided submission, a stale version), as plain functions over stored rows. Who may not decide
+ * a submission, and why, lives in services/independence.ts.
  */
-import type { Coverage, Scope, Submission } from '@/shared/api/approval';
-import type { Role } from '@/shared/api/auth';
+import type { Coverage, Scope, Signer, Submission } from '@/shared/api/approval';
 import type { DecisionRow, SubmissionRow } from '../db/approval';
 import { AppError } from '../errors';
-
-/** Why `userId` (with `role` in the lab) may not decide this submission, most basic first. */
-export function independenceRefusals(
-  sub: Pick<SubmissionRow, 'submitted_by' | 'recipe_version'>,
-  authors: { author_id: string; version: number }[],
-  userId: string,
-  role: Role,
-): AppError[] {
-  const out: AppError[] = [];
-  if (role !== 'reviewer') {
-    out.push(new AppError(403, 'forbidden', `Only a reviewer may approve or return a submission; your role in this lab is ${role}.`));
-  }
-  if (sub.submitted_by === userId) {
-    out.push(new AppError(403, 'self_approval', 'You submitted this recipe version for review: an independent reviewer must decide it.'));
-  }
-  const own = authors.filter((a) => a.author_id === userId);
-  if (own.some((a) => a.version === sub.recipe_version)) {
-    out.push(new AppError(403, 'author_cannot_decide', `You wrote version ${sub.recipe_version} of this recipe: a reviewer who is not its author must decide it.`));
-  } else if (own.length) {
-    out.push(
-      new AppError(
-        403,
-        'editor_cannot_decide',
-        `You edited this recipe (version ${own.map((a) => a.version).join(', ')}), and version ${sub.recipe_version} builds on that edit: a reviewer who did not edit it must decide it.`,
-      ),
-    );
-  }
-  return out;
-}
 
 export const alreadyDecided = (d: Pick<DecisionRow, 'decision' | 'reviewer_name' | 'decided_at'>) =>
   new AppError(
@@ -51,11 +22,12 @@ export const staleVersion = (version: number, latest: number) =>
     { version, latestVersion: latest },
   );
 
-export function decisionView(d: DecisionRow): NonNullable<Submission['decision']> {
+export function decisionView(d: DecisionRow, signer: Signer): NonNullable<Submission['decision']> {
   return {
     id: d.id,
     decision: d.decision,
     reviewer: { id: d.reviewer_id, displayName: d.reviewer_name },
+    signer,
     meaning: d.meaning,
     comment: d.comment,
     reason: d.reason,
@@ -69,8 +41,8 @@ export function decisionView(d: DecisionRow): NonNullable<Submission['decision']
 export function submissionView(
   row: SubmissionRow,
   studies: Submission['studies'],
-  decision: DecisionRow | undefined,
-  blockedForYou: string[],
+  decision: { row: DecisionRow; signer: Signer } | undefined,
+  you: Pick<Submission, 'blockedForYou' | 'viewer' | 'rule'>,
 ): Submission {
   return {
     id: row.id,
@@ -85,25 +57,11 @@ export function submissionView(
     failingCriteria: JSON.parse(row.failing_json) as Submission['failingCriteria'],
     submittedBy: { id: row.submitted_by, displayName: row.submitted_by_name },
     submittedAt: Number(row.submitted_at),
-    status: decision ? decision.decision : 'pending',
-    decision: decision ? decisionView(decision) : null,
+    status: decision ? decision.row.decision : 'pending',
+    decision: decision ? decisionView(decision.row, decision.signer) : null,
     standardId: row.standard_id,
     standardStatus: row.standard_status ?? null,
     resubmittedAs: row.resubmitted_as ?? null,
-    blockedForYou,
+    ...you,
   };
-}
-
-/** The messages shown to a user who may not decide a pending submission (empty if they may). */
-export function blockedMessages(
-  row: SubmissionRow,
-  decision: DecisionRow | undefined,
-  authors: { author_id: string; version: number }[],
-  userId: string,
-  role: Role,
-): string[] {
-  if (decision) return [alreadyDecided(decision).message];
-  const out = independenceRefusals(row, authors, userId, role).map((e) => e.message);
-  if (row.recipe_version < row.latest_version) out.push(staleVersion(row.recipe_version, row.latest_version).message);
-  return out;
 }

@@ -3,7 +3,7 @@ import { Router } from 'express';
 import { auditListQuerySchema, auditListSchema, auditVerifySchema, type AuditEvent } from '@/shared/api/people';
 import type { AppDeps } from '../deps';
 import { labRoute } from '../auth/permissions';
-import { chainRows, listAudit, type AuditRow } from '../db/audit';
+import { chainRowsWithPeople, listAudit, type AuditRow } from '../db/audit';
 import { verifyAuditTrail } from '../services/audit-verify';
 import { parseBody } from './parse';
 
@@ -56,12 +56,15 @@ export function auditRoutes(deps: AppDeps): Router {
   });
   labRoute(r, db, {
     method: 'get', path: '/labs/:labId/audit/export', action: 'audit.export',
-    summary: "The lab's whole audit trail as CSV, oldest first, with the hashes", produces: 'text/csv',
+    summary: "The lab's whole audit trail as CSV, oldest first, with names and e-mails of the people and the hashes", produces: 'text/csv',
   }, async (req, res) => {
-    const rows = await chainRows(db, req.lab.id);
-    const head = ['id', 'at_iso', 'actor_user_id', 'action', 'target_type', 'target_id', 'before_json', 'after_json', 'prev_hash', 'hash'];
+    const rows = await chainRowsWithPeople(db, req.lab.id);
+    const head = ['id', 'at_iso', 'actor_user_id', 'actor_name', 'actor_email', 'action', 'target_type', 'target_id', 'target_name', 'target_email', 'before_json', 'after_json', 'prev_hash', 'hash'];
     const lines = rows.map((e) =>
-      [Number(e.id), new Date(Number(e.at)).toISOString(), e.actor_user_id, e.action, e.target_type, e.target_id, e.before_json, e.after_json, e.prev_hash, e.hash]
+      [
+        Number(e.id), new Date(Number(e.at)).toISOString(), e.actor_user_id, e.actor_name, e.actor_email, e.action, e.target_type, e.target_id,
+        e.target_name, e.target_email, e.before_json, e.after_json, e.prev_hash, e.hash,
+      ]
         .map(csvCell)
         .join(','),
     );

@@ -21,13 +21,13 @@ export function peopleRoutes(deps: AppDeps): Router {
     body: changeRoleRequestSchema, response: memberSchema,
   }, async (req, res) => {
     const { role } = parseBody(changeRoleRequestSchema, req.body);
-    res.json(await changeMemberRole(deps.db, { labId: req.lab.id, userId: String(req.params.userId), role, actorUserId: req.user.id }));
+    res.json(await changeMemberRole(deps.db, { labId: req.lab.id, userId: String(req.params.userId), role, actorUserId: req.user.id, at: deps.clock.now() }));
   });
   labRoute(r, deps.db, {
     method: 'delete', path: '/labs/:labId/members/:userId', action: 'members.remove',
     summary: 'Remove a member from the lab (the last admin cannot be removed)', status: 204,
   }, async (req, res) => {
-    await removeMember(deps.db, { labId: req.lab.id, userId: String(req.params.userId), actorUserId: req.user.id });
+    await removeMember(deps.db, { labId: req.lab.id, userId: String(req.params.userId), actorUserId: req.user.id, at: deps.clock.now() });
     res.status(204).end();
   });
   return r;

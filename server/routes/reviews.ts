@@ -20,7 +20,7 @@ export function reviewRoutes(deps: AppDeps): Router {
   const { db } = deps;
   const review = { db, mailer: deps.mailer, publicUrl: deps.config.publicUrl };
   const base = '/labs/:labId/reviews';
-  const viewer = (req: LabRequest) => ({ id: req.user.id, role: req.lab.role });
+  const viewer = (req: LabRequest) => ({ id: req.user.id, role: req.lab.role, policy: { adminCoolingDays: deps.config.approvalAdminCoolingDays, now: deps.clock.now() } });
   labRoute(r, db, { method: 'get', path: base, action: 'reviews.read', summary: 'Review submissions: the inbox (status=pending) and past decisions', query: reviewListQuerySchema, response: reviewListSchema }, async (req, res) => {
     res.json(await listSubmissions(db, req.lab.id, parseBody(reviewListQuerySchema, req.query), viewer(req)));
   });

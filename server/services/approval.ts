@@ -29,8 +29,10 @@ import type { Mailer } from '../mail/mailer';
 import { evidenceDocument, evidenceSha256, signatureSha256 } from './evidence';
 import { recipeSettings } from '../reports/recipe-settings';
 import { scopeCoverage } from './scope-coverage';
-import { alreadyDecided, blockedMessages, independenceRefusals, staleVersion, submissionView } from '../reports/submission-view';
+import { alreadyDecided, staleVersion, submissionView } from '../reports/submission-view';
+import { signerOf } from './account-origin';
 import { recordAudit } from './audit';
+import { independenceFacts, independenceRefusals, independenceRule, type IndependencePolicy } from './independence';
 import { reviewMail } from './review-reminders';
 import { AttemptLimiter, MAX_FAILURES_PER_ACCOUNT } from './sign-in';
 import { scenarioOf } from './scenario-definition';
@@ -41,7 +43,8 @@ export interface ReviewDeps {
   mailer: Mailer;
   publicUrl: string;
 }
-type Viewer = { id: string; role: Role };
+/** The signed-in user, and the clock and cooling period the independence rules are judged by. */
+type Viewer = { id: string; role: Role; policy: IndependencePolicy };
 const MIN_JUSTIFICATION = 20;
 /** Wrong signature passwords per reviewer in 15 minutes before signing is paused (as for sign-in). */
 const signatureAttempts = new AttemptLimiter();
@@ -62,9 +65,21 @@ export async function getSubmission(db: Db, labId: string, id: string, viewer: V
   const row = await store.findSubmission(db, labId, id);
   if (!row) throw notFound(`Submission ${id}`);
   const decision = row.decision_id ? await store.findDecision(db, id) : undefined;
-  const authors = await store.versionAuthors(db, row.recipe_id, row.recipe_version);
   const studies = await studyList(db, labId, await store.evidenceStudyIds(db, id));
-  return submissionView(row, studies, decision, blockedMessages(row, decision, authors, viewer.id, viewer.role));
+  const me = await findUserById(db, viewer.id);
+  return submissionView(row, studies, decision && { row: decision, signer: await signerOf(db, labId, decision.reviewer_id) }, {
+    blockedForYou: await blockedMessages(db, row, decision, viewer),
+    viewer: { id: viewer.id, displayName: me?.display_name ?? '', email: me?.email ?? '' },
+    rule: independenceRule(viewer.policy.adminCoolingDays),
+  });
+}
+
+/** The messages shown to a user who may not decide a submission (empty if they may). */
+async function blockedMessages(db: Db, row: store.SubmissionRow, decision: store.DecisionRow | undefined, viewer: Viewer): Promise<string[]> {
+  if (decision) return [alreadyDecided(decision).message];
+  const out = independenceRefusals(await independenceFacts(db, row, viewer.id, viewer.role), viewer.id, viewer.policy).map((e) => e.message);
+  if (row.recipe_version < row.latest_version) out.push(staleVersion(row.recipe_version, row.latest_version).message);
+  return out;
 }
 
 export async function listSubmissions(db: Db, labId: string, query: { limit: number; offset: number } & store.SubmissionFilter, viewer: Viewer) {
@@ -171,7 +186,8 @@ async function refuse(db: Db, labId: string, userId: string, submissionId: strin
 export async function recordRoleRefusal(db: Db, labId: string, userId: string, submissionId: string): Promise<AppError | null> {
   const member = await findMember(db, labId, userId);
   if (!member) return null;
-  const err = independenceRefusals({ submitted_by: '', recipe_version: 0 }, [], userId, member.role)[0];
+  const none = { role: member.role, submittedBy: '', recipeVersion: 0, versionsWritten: [], studiesStarted: [], leftAdminAt: null };
+  const err = independenceRefusals(none, userId, { adminCoolingDays: 0, now: 0 })[0];
   if (!err) return null;
   await recordAudit(db, { labId, actorUserId: userId, action: 'reviews.decide-refused', targetType: 'review', targetId: submissionId, after: { refused: 'role', role: member.role, message: err.message } });
   return err;
@@ -186,8 +202,8 @@ export async function decide(deps: ReviewDeps, labId: string, viewer: Viewer, su
   const no = (err: AppError, action?: string) => refuse(db, labId, viewer.id, submissionId, body.decision, err, action);
   const prior = await store.findDecision(db, submissionId);
   if (prior) return no(alreadyDecided(prior));
-  const authors = await store.versionAuthors(db, sub.recipe_id, sub.recipe_version);
-  const [refusal] = independenceRefusals(sub, authors, viewer.id, viewer.role);
+  const authors = await store.recipeAuthors(db, sub.recipe_id);
+  const [refusal] = independenceRefusals(await independenceFacts(db, sub, viewer.id, viewer.role), viewer.id, viewer.policy);
   if (refusal) return no(refusal);
   if (body.decision === 'approved' && sub.recipe_version < sub.latest_version) return no(staleVersion(sub.recipe_version, sub.latest_version));
   if (sub.recipe_state !== 'in_review') return no(new AppError(409, 'not_in_review', `Version ${sub.recipe_version} is ${sub.recipe_state}, not in review.`));
@@ -223,6 +239,7 @@ export async function decide(deps: ReviewDeps, labId: string, viewer: Viewer, su
     await store.insertDecision(trx, {
       id: decisionId, submission_id: submissionId, lab_id: labId, reviewer_id: viewer.id, decision: body.decision, meaning, comment: body.comment,
       reason, decided_at: signedAt, engine_version: ENGINE_VERSION, evidence_sha256: evidence, signature_sha256: signature,
+      admin_cooling_days: viewer.policy.adminCoolingDays,
     });
     await store.moveVersionState(trx, sub.recipe_id, sub.recipe_version, ['in_review'], body.decision, signedAt);
     const recipe = { id: sub.recipe_id, version: sub.recipe_version };

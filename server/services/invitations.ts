@@ -18,6 +18,7 @@ import { addMembership, insertUser } from '../db/users';
 import { AppError, notFound } from '../errors';
 import type { Mailer } from '../mail/mailer';
 import { recordAudit } from './audit';
+import { displayNameClash } from './display-names';
 
 export const INVITATION_HOURS = 72;
 
@@ -92,6 +93,7 @@ export async function createInvitation(
     labId: input.labId,
     to: input.email,
     kind: 'invitation',
+    secrets: [link],
     subject: `You are invited to ${lab.name} on Plumbline`,
     text:
       `You have been invited to join ${lab.name} on Plumbline as ${input.role}.\n\n` +
@@ -153,6 +155,14 @@ export async function acceptInvitation(db: Db, token: string, input: AcceptInvit
     if (problem) throw new AppError(400, 'weak_password', `password: ${problem}`, { fields: [{ path: 'password', message: problem }] });
     newAccount = { passwordHash: await hashPassword(input.password), displayName: input.displayName };
   }
+  const clash = await displayNameClash(db, inv.lab_id, existing ? existing.display_name : newAccount!.displayName, existing?.id ?? null);
+  if (clash) {
+    await recordAudit(db, {
+      labId: inv.lab_id, actorUserId: existing?.id ?? null, action: 'invitations.accept-refused', targetType: 'invitation', targetId: inv.id,
+      after: { refused: clash.code, message: clash.message, email: inv.email, displayName: existing ? existing.display_name : newAccount!.displayName },
+    });
+    throw clash;
+  }
   return db.transaction(async (trx) => {
     // Simultaneous accepts of one link: the invitation is spent first, so the losers get 410
     // before any account is written (inserting first made them fail on the unique e-mail: 500).
@@ -165,7 +175,7 @@ export async function acceptInvitation(db: Db, token: string, input: AcceptInvit
     await setInvitationAcceptedUser(trx, inv.id, userId);
     await recordAudit(trx, { labId: inv.lab_id, actorUserId: userId, action: 'invitations.accept', targetType: 'invitation', targetId: inv.id, after: { newAccount: !existing } });
     if (!(await findMember(trx, inv.lab_id, userId))) {
-      await addMembership(trx, { labId: inv.lab_id, userId, role: inv.role });
+      await addMembership(trx, { labId: inv.lab_id, userId, role: inv.role, by: inv.invited_by });
       await recordAudit(trx, { labId: inv.lab_id, actorUserId: userId, action: 'members.add', targetType: 'user', targetId: userId, after: { email: inv.email, role: inv.role } });
     }
     return { userId, labId: inv.lab_id };

@@ -17,6 +17,7 @@ import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
 import { resetRequestRefused } from './attempt-limits';
 import { recordAudit } from './audit';
+import { recordAccountEvent } from './account-events';
 import { newToken, sameHash, tokenHash } from './invitations';
 
 export const RESET_MINUTES = 60;
@@ -43,7 +44,7 @@ export async function requestPasswordReset(deps: Deps, email: string, client: { 
     // Only the newest link works: an older one found later in a mailbox is already closed.
     await closeOpenPasswordResets(trx, user.id, now);
     await insertPasswordReset(trx, { id: randomUUID(), user_id: user.id, token_hash: hash, created_at: now, expires_at: now + RESET_MINUTES * 60_000, used_at: null });
-    await recordAudit(trx, { labId: null, actorUserId: null, action: 'auth.password-reset-requested', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
+    await recordAccountEvent(trx, user.id, { actorUserId: null, action: 'auth.password-reset-requested', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
   });
   const link = `${deps.publicUrl}/reset-password?token=${token}`;
   // Not awaited: the answer must not wait on SMTP, or its timing would reveal that the address exists.
@@ -51,6 +52,7 @@ export async function requestPasswordReset(deps: Deps, email: string, client: { 
     .send({
       to: user.email,
       kind: 'password-reset',
+      secrets: [link],
       subject: 'Reset your Plumbline password',
       text:
         `Someone asked to reset the password of your Plumbline account (${user.email}).\n\n` +
@@ -74,7 +76,7 @@ export async function confirmPasswordReset(deps: Pick<Deps, 'db' | 'auth'>, toke
   await deps.db.transaction(async (trx) => {
     if (!(await spendPasswordReset(trx, row, Date.now()))) throw invalid();
     await setPasswordHash(trx, user.id, passwordHash);
-    await recordAudit(trx, { labId: null, actorUserId: user.id, action: 'auth.password-reset', targetType: 'user', targetId: user.id });
+    await recordAccountEvent(trx, user.id, { actorUserId: user.id, action: 'auth.password-reset', targetType: 'user', targetId: user.id });
   });
   await deps.auth.invalidateUserSessions(user.id);
 }

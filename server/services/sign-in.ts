@@ -10,6 +10,7 @@ import { findUserByEmail, findUserById, listMemberships } from '../db/users';
 import { AppError } from '../errors';
 import { clearSignInFailures, recordSignInFailure, signInBlocked } from './attempt-limits';
 import { recordAudit } from './audit';
+import { recordAccountEvent } from './account-events';
 import type { MeResponse, SignInRequest } from '@/shared/api/auth';
 
 const WINDOW_MS = 15 * 60_000;
@@ -54,8 +55,8 @@ export async function signIn(
   if (!user || !ok) {
     await recordSignInFailure(deps.db, input.email, client.ip);
     // Lab-less event; the address is kept as typed so an admin can see guessing against it.
-    await recordAudit(deps.db, {
-      labId: null, actorUserId: null, action: 'auth.sign-in-failed', targetType: 'user', targetId: user?.id ?? null,
+    await recordAccountEvent(deps.db, user?.id ?? null, {
+      actorUserId: null, action: 'auth.sign-in-failed', targetType: 'user', targetId: user?.id ?? null,
       after: { email: input.email, ip: client.ip, reason: user ? 'wrong_password' : 'unknown_email' },
     });
     throw wrongCredentials();
@@ -63,7 +64,7 @@ export async function signIn(
   await clearSignInFailures(deps.db, input.email, client.ip);
   if (client.previousSessionId) await deps.auth.invalidateSession(client.previousSessionId);
   const session = await deps.auth.createSession(user.id, { createdAt: Date.now() });
-  await recordAudit(deps.db, { labId: null, actorUserId: user.id, action: 'auth.sign-in', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
+  await recordAccountEvent(deps.db, user.id, { actorUserId: user.id, action: 'auth.sign-in', targetType: 'user', targetId: user.id, after: { ip: client.ip } });
   return { sessionId: session.id, me: await describeUser(deps.db, user.id) };
 }
 

@@ -12,6 +12,7 @@ import { findResource } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import { recipeSettings } from '../reports/recipe-settings';
 import { recordAudit } from './audit';
+import { signatureOf } from './signature';
 
 export function scopeOf(s: StandardRow): Scope {
   return {
@@ -42,15 +43,7 @@ async function standardView(db: Db, s: StandardRow): Promise<Standard> {
     supersedes: await link(s.supersedes_id),
     supersededBy: await link(s.superseded_by_id),
     ended: s.ended_at === null ? null : { at: Number(s.ended_at), by: s.ended_by ? { id: s.ended_by, displayName: s.ended_by_name ?? '' } : null, reason: s.end_reason ?? '' },
-    signature: {
-      reviewer: { id: d.reviewer_id, displayName: d.reviewer_name },
-      meaning: d.meaning ?? '',
-      comment: d.comment,
-      signedAt: Number(d.decided_at),
-      engineVersion: d.engine_version,
-      evidenceSha256: d.evidence_sha256,
-      signatureSha256: d.signature_sha256,
-    },
+    signature: await signatureOf(db, d),
     submissionId: s.submission_id,
     evidenceStudyIds: studyIds,
     settings: await recipeSettings(db, s.recipe_id, s.recipe_version, studyIds),

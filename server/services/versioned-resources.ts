@@ -4,6 +4,7 @@
  * The definition is validated twice: by the engine's zod schema in the route, then by the
  * engine's own parser, which adds the cross-field rules (e.g. block length or resolution).
  */
+import { diffDefinitions } from '@/shared/api/definition-diff';
 import type { ResourceListQuery } from '@/shared/api/work';
 import type { Db } from '../db/knex';
 import {
@@ -134,6 +135,7 @@ export function resourceService<D>(spec: ResourceKindSpec<D>) {
           at: Date.now(),
         });
         if (!moved) throw conflict(spec.noun, input.baseVersion, h.latest_version + 1);
+        const previous = await findVersion(trx, spec.kind, id, h.latest_version);
         await recordAudit(trx, {
           labId,
           actorUserId: userId,
@@ -141,12 +143,23 @@ export function resourceService<D>(spec: ResourceKindSpec<D>) {
           targetType: spec.noun,
           targetId: id,
           before: { version: h.latest_version, name: h.name },
-          after: { version: h.latest_version + 1, name },
+          after: { version: h.latest_version + 1, name, changes: fieldChanges(previous, definition, { old: h.description, new: input.description ?? h.description }) },
         });
       });
       return get(db, labId, id);
     },
   };
+}
+
+/**
+ * What an edit changed, field by field ({ path, old, new }; a missing side is left out), for the
+ * audit trail: the definition's leaves by dotted path, and the description.
+ */
+function fieldChanges(previous: ResourceVersionRow | undefined, definition: unknown, description: { old: string; new: string }) {
+  const before = previous ? (JSON.parse(previous.body) as unknown) : undefined;
+  const out = diffDefinitions(before, JSON.parse(JSON.stringify(definition))).map((c) => ({ path: c.path, old: c.before, new: c.after }));
+  if (description.old !== description.new) out.push({ path: 'description', old: description.old, new: description.new });
+  return out;
 }
 
 function conflict(noun: string, base: number, latest: number) {

@@ -87,8 +87,29 @@ export const failingCriterionSchema = z.object({
   unit: z.string(),
 });
 
+/** How an account came to the lab: by an accepted invitation (from whom, when), or by the operator. */
+export const accountOriginSchema = z.object({
+  kind: z.enum(['invitation', 'operator']),
+  /** The admin who sent the invitation (null for the operator, or an inviter since removed). */
+  invitedBy: z.object({ id: z.string(), displayName: z.string(), email: z.string() }).nullable(),
+  /** When the invitation was sent (null for the operator). */
+  invitedAt: millis.nullable(),
+  /** When the account joined the lab. */
+  joinedAt: millis.nullable(),
+  /** The same in words, e.g. "invited by Mara Okafor (admin@harborridge.test) on 2026-12-05, accepted 2026-12-06". */
+  text: z.string(),
+});
+export type AccountOrigin = z.infer<typeof accountOriginSchema>;
+
+/** Who signed: the name and the e-mail of the account, and how it came to the lab. */
+export const signerSchema = z.object({ id: z.string(), displayName: z.string(), email: z.string(), origin: accountOriginSchema });
+export type Signer = z.infer<typeof signerSchema>;
+
 export const signatureSchema = z.object({
   reviewer: person,
+  signer: signerSchema,
+  /** The independence and admin/approval separation rule the signature was checked against, in one sentence. */
+  rule: z.string(),
   meaning: z.string(),
   comment: z.string(),
   signedAt: millis,
@@ -104,6 +125,7 @@ export const decisionViewSchema = z.object({
   id: z.string(),
   decision: z.enum(['approved', 'returned']),
   reviewer: person,
+  signer: signerSchema,
   meaning: z.string().nullable(),
   comment: z.string(),
   reason: z.string().nullable(),
@@ -138,6 +160,10 @@ export const submissionSchema = z.object({
   resubmittedAs: z.string().nullable().default(null),
   /** Why the signed-in user may not decide this submission (empty when they may). */
   blockedForYou: z.array(z.string()),
+  /** The signed-in user the reasons above are about. */
+  viewer: z.object({ id: z.string(), displayName: z.string(), email: z.string() }),
+  /** The independence and admin/approval separation rule, in one sentence. */
+  rule: z.string(),
 });
 export type Submission = z.infer<typeof submissionSchema>;
 

@@ -122,7 +122,7 @@ describe('the author and the editors of a version', () => {
     study.v3 = await finishedStudy(as.analyst, w, 3);
     sub.v3 = (await submit(as.analyst, 3, [study.v3]).expect(201)).body.id;
     const view = await as.analyst2.get(`${reviews}/${sub.v3}`).expect(200);
-    expect(view.body.blockedForYou).toEqual(['You edited this recipe (version 2), and version 3 builds on that edit: a reviewer who did not edit it must decide it.']);
+    expect(view.body.blockedForYou).toEqual(['You wrote version 2, which version 3 builds on: a reviewer who wrote no version of this recipe must decide it.']);
     const res = await approve(as.analyst2, sub.v3!).expect(403);
     expect(res.body.error.code).toBe('editor_cannot_decide');
     expect((await refusalsOf(sub.v3!)).map((r) => r.refused)).toEqual(['editor_cannot_decide']);

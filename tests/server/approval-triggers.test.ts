@@ -95,7 +95,7 @@ describe('submissions, evidence, decisions and reports', () => {
       );
     const analyst = await userId(t, 'analyst@harborridge.test');
     const auditor = await userId(t, 'auditor@harborridge.test');
-    expect(await failureOf(insert(analyst, 'approved', 'meaning', null))).toMatch(/the submitter or an author of the version cannot decide it/);
+    expect(await failureOf(insert(analyst, 'approved', 'meaning', null))).toMatch(/the submitter, an author of any version or the starter of an evidence study cannot decide it/);
     expect(await failureOf(insert(auditor, 'approved', '  ', null))).toMatch(/approved needs a meaning, returned needs a reason/);
     expect(await failureOf(insert(auditor, 'returned', null, null))).toMatch(/approved needs a meaning, returned needs a reason/);
     // The first decision is still the only one: the submission is unique in review_decisions.

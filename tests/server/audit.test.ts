@@ -115,7 +115,7 @@ describe('the audit trail over HTTP', () => {
     const auditor = await t.signIn('auditor');
     const res = await auditor.get(`/api/v1/labs/${t.labId}/audit/export`).expect(200).expect('content-type', /text\/csv/);
     const lines = res.text.trim().split('\r\n');
-    expect(lines[0]).toBe('id,at_iso,actor_user_id,action,target_type,target_id,before_json,after_json,prev_hash,hash');
+    expect(lines[0]).toBe('id,at_iso,actor_user_id,actor_name,actor_email,action,target_type,target_id,target_name,target_email,before_json,after_json,prev_hash,hash');
     const csvLine = lines.find((l) => l.includes('test.csv'))!;
     expect(csvLine).toContain(`"'=HYPERLINK(""x"")"`);
     const stored = await t.db('audit_events').where({ lab_id: t.labId }).count({ n: '*' }).first();

@@ -9,6 +9,7 @@
  *   await admin.get(`/api/v1/labs/${t.labId}/members`).expect(200);
  *   t.db('memberships')...                            // the server's own Knex, to check what was stored
  *   t.mail()                                          // messages the fake SMTP server received
+ *   t.clock.set(Date.now() + 31 * 86_400_000)         // the server's clock for time-based rules
  */
 import fs from 'node:fs';
 import os from 'node:os';
@@ -38,6 +39,8 @@ export interface TestServer {
   agent(): request.Agent;
   /** Signs in a demo user of the given role (first one of that role) or by e-mail; returns the agent. */
   signIn(who: Role | string, password?: string): Promise<request.Agent>;
+  /** The server's clock for time-based rules: real time until `set`, then that time until `reset`. */
+  clock: { now(): number; set(ms: number): void; reset(): void };
   /** Messages received by the fake SMTP server so far. */
   mail(): ReceivedMail[];
   /** Waits until a message to `to` arrives (the mailer sends after the answer in some flows). */
@@ -61,7 +64,9 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
     },
     dataDir,
   );
-  const running = await startServer(config);
+  let fixed: number | null = null;
+  const clock = { now: () => fixed ?? Date.now(), set: (ms: number) => void (fixed = ms), reset: () => void (fixed = null) };
+  const running = await startServer(config, undefined, clock);
   const lab = await running.db('labs').where({ slug: DEMO_LAB.slug }).first('id');
   const http = request(running.url);
   const agent = () => request.agent(running.url);
@@ -73,6 +78,7 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
     labId: lab?.id,
     http,
     agent,
+    clock,
     async signIn(who, password = TEST_PASSWORD) {
       const email = who.includes('@') ? who : DEMO_USERS.find((u) => u.role === who)?.email;
       if (!email) throw new Error(`No demo user for ${who}`);

@@ -65,7 +65,8 @@ describe('inviting and accepting', () => {
       .whereIn('target_id', [res.body.id, user.id])
       .orderBy('id')
       .select('action', 'actor_user_id');
-    expect(events.map((e) => e.action)).toEqual(['invitations.create', 'invitations.accept', 'members.add']);
+    // The sign-in after accepting is an account event of each lab the new member belongs to.
+    expect(events.map((e) => e.action)).toEqual(['invitations.create', 'invitations.accept', 'members.add', 'auth.sign-in']);
     expect(events[2].actor_user_id).toBe(user.id);
   });
 

@@ -79,7 +79,9 @@ describe('changing roles and removing members', () => {
     await admin.patch(`/api/v1/labs/${t.labId}/members/${reviewerId}`).send({ role: 'auditor' }).expect(403);
     const newAdmin = await t.signIn('reviewer@harborridge.test');
     await newAdmin.patch(`/api/v1/labs/${t.labId}/members/${adminId}`).send({ role: 'admin' }).expect(200);
-    await newAdmin.patch(`/api/v1/labs/${t.labId}/members/${reviewerId}`).send({ role: 'reviewer' }).expect(200);
+    // No one gives themselves a role that decides reviews: the other admin does it.
+    expect((await newAdmin.patch(`/api/v1/labs/${t.labId}/members/${reviewerId}`).send({ role: 'reviewer' }).expect(403)).body.error.code).toBe('self_grant_refused');
+    await admin.patch(`/api/v1/labs/${t.labId}/members/${reviewerId}`).send({ role: 'reviewer' }).expect(200);
   });
 
   it('removes a membership; the removed user then sees the lab as absent', async () => {
@@ -145,7 +147,9 @@ describe('lab settings and the mail view', () => {
     await foreignAdmin.post(`/api/v1/labs/${other.labId}/invitations`).send({ email: 'elsewhere@example.test', role: 'auditor' }).expect(201);
     const mail = await admin.get(`/api/v1/labs/${t.labId}/mail`).expect(200);
     expect(mail.body.items[0]).toMatchObject({ to: 'outbox.check@example.test', kind: 'invitation', status: 'sent' });
-    expect(mail.body.items[0].text).toContain('/accept-invitation?token=');
+    // The single-use link is withheld: only the recipient's mailbox has it.
+    expect(mail.body.items[0].text).toContain('[link withheld: only the recipient received it]');
+    expect(mail.body.items[0].text).not.toContain('token=');
     expect(mail.body.items.some((m: { to: string }) => m.to === 'elsewhere@example.test')).toBe(false);
   });
 });

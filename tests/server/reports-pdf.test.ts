@@ -204,6 +204,8 @@ describe("a study's report as PDF", () => {
   it('prints the signature block and the cautions', () => {
     const sig = json.content.signature;
     for (const s of ['Dana Whitcombe', sig.meaning, sig.signatureSha256, sig.evidenceSha256, 'Read in full.']) expect(text).toContain(s);
+    // Who signed, beyond the name: the e-mail, how the account came to the lab, and the rule.
+    for (const s of ['signer e-mail reviewer@harborridge.test', 'signer in this lab added by the operator', 'independence rule No one may decide a review']) expect(text).toContain(s);
     expect(text).toContain('Synthetic verification checks the processing, not the transducers');
     expect(text).toContain('follow the lab\'s safety rules and local codes');
     expect(text).toContain('responsibility stays with the lab\'s licensed or authorised staff');

@@ -69,6 +69,8 @@ describe('sign-off dialog', () => {
     expect(screen.queryByRole('dialog')).toBeNull();
     const record = screen.getByTestId('decision-record');
     expect(record.textContent).toContain('Dana Whitcombe');
+    expect(record.textContent).toContain('reviewer@harborridge.test');
+    expect(record.textContent).toContain('added by the operator (seeded or created outside Plumbline) on 2026-11-20, not by an invitation');
     expect(record.textContent).toContain(`signature sha256 ${'b'.repeat(64)}`);
   });
 
@@ -99,11 +101,14 @@ describe('sign-off dialog', () => {
     expect(api.called('POST', lab('/reviews/sub-1/decision'))[0].body).toEqual({ decision: 'returned', reason: 'Add a scenario with noise on the force channel.', comment: '' });
   });
 
-  test('a reviewer who may not decide sees why, and no sign-off button', async () => {
-    installEvidenceApi({ ...session(meAs('reviewer')), ...reviewRoutes(submission({ blockedForYou: ['You ran one of the evidence studies.'] })) });
+  test('a reviewer who may not decide sees who is refused and why, the rule, and no sign-off button', async () => {
+    const why = 'You started the evidence study "Arm burst check": a reviewer who produced none of the evidence must decide it.';
+    installEvidenceApi({ ...session(meAs('reviewer')), ...reviewRoutes(submission({ blockedForYou: [why] })) });
     await renderApp('/reviews/sub-1');
     expect(screen.queryByRole('button', { name: 'Sign off…' })).toBeNull();
-    expect(screen.getByText('You ran one of the evidence studies.')).toBeTruthy();
+    expect(screen.getByText('Dana Whitcombe (reviewer@harborridge.test) may not decide this one')).toBeTruthy();
+    expect(screen.getByTestId('blocked-reasons').textContent).toBe(why);
+    expect(screen.getByTestId('independence-rule').textContent).toMatch(/^No one may decide a review who submitted it, .* within the last 30 days cannot decide one\.$/);
   });
 
   test('an analyst reads the evidence but gets no decision buttons', async () => {

@@ -67,6 +67,13 @@ export const results = studyResultsSchema.parse({
 
 const scope = { structureType: 'drone motor arm', band: { lowHz: 200, highHz: 1000 }, dampingPercent: { min: 0.5, max: 1.2 }, excitations: ['burst-random'] };
 
+/** The demo reviewer as a signer: added by the operator (the seed). */
+export const signer = {
+  id: 'user-reviewer', displayName: 'Dana Whitcombe', email: 'reviewer@harborridge.test',
+  origin: { kind: 'operator', invitedBy: null, invitedAt: null, joinedAt: at, text: 'added by the operator (seeded or created outside Plumbline) on 2026-11-20, not by an invitation' },
+};
+const rule = 'No one may decide a review who submitted it, wrote any version of its recipe or started a study of its evidence; an admin cannot give itself a role that decides reviews, and an account that held the admin role in this lab within the last 30 days cannot decide one.';
+
 export function submission(over: Record<string, unknown> = {}) {
   return submissionSchema.parse({
     id: 'sub-1', labId: LAB, recipe: { id: 'recipe-arm', version: 1, name: 'Arm shaker, burst random', state: 'in_review', latestVersion: 1 },
@@ -74,6 +81,7 @@ export function submission(over: Record<string, unknown> = {}) {
     studies: [{ id: 'study-1', name: 'Arm burst check', pass: true }],
     coverage: { covered: true, checks: [{ id: 'band-in-recipe', ok: true, detail: "scope band 200–1000 Hz lies inside the recipe's band" }] },
     failingCriteria: [], submittedBy: person, submittedAt: at, status: 'pending', decision: null, standardId: null, blockedForYou: [],
+    viewer: { id: signer.id, displayName: signer.displayName, email: signer.email }, rule,
     ...over,
   });
 }
@@ -88,7 +96,7 @@ export const evidence = (sub = submission()) =>
 export const decided = () =>
   submission({
     status: 'approved', standardId: 'std-1',
-    decision: { id: 'dec-1', decision: 'approved', reviewer: { id: 'user-reviewer', displayName: 'Dana Whitcombe' }, meaning: 'Approved as the lab standard for the arm', comment: '', reason: null,
+    decision: { id: 'dec-1', decision: 'approved', reviewer: { id: 'user-reviewer', displayName: 'Dana Whitcombe' }, signer, meaning: 'Approved as the lab standard for the arm', comment: '', reason: null,
       decidedAt: at + 60_000, engineVersion: '1.0.0', evidenceSha256: 'a'.repeat(64), signatureSha256: 'b'.repeat(64) },
   });
 
@@ -96,7 +104,7 @@ export const standard = (over: Record<string, unknown> = {}) =>
   standardSchema.parse({
     id: 'std-1', labId: LAB, recipe: { id: 'recipe-arm', version: 1, name: 'Arm shaker, burst random' }, scope, purpose: 'Shaker standard',
     effectiveAt: at, reviewDueAt: at + 365 * 86_400_000, status: 'active', supersedes: null, supersededBy: null, ended: null,
-    signature: { reviewer: { id: 'user-reviewer', displayName: 'Dana Whitcombe' }, meaning: 'Approved as the lab standard for the arm', comment: '', signedAt: at, engineVersion: '1.0.0', evidenceSha256: 'a'.repeat(64), signatureSha256: 'b'.repeat(64) },
+    signature: { reviewer: { id: 'user-reviewer', displayName: 'Dana Whitcombe' }, signer, rule, meaning: 'Approved as the lab standard for the arm', comment: '', signedAt: at, engineVersion: '1.0.0', evidenceSha256: 'a'.repeat(64), signatureSha256: 'b'.repeat(64) },
     submissionId: 'sub-1', evidenceStudyIds: ['study-1'],
     ...over,
   });

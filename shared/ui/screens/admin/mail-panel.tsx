@@ -19,7 +19,7 @@ export function MailPanel({ labId }: { labId: string }) {
   }
   return (
     <Panel title="Sent mail" testID="mail-panel">
-      <AppText variant="small" tone="muted">Shown while mail goes to Plumbline&apos;s local fake mail server, so invitations and reset links can be followed without a mailbox.</AppText>
+      <AppText variant="small" tone="muted">Shown while mail goes to Plumbline&apos;s local fake mail server. Invitation and password reset links are withheld here: only the recipient receives them.</AppText>
       <QueryView query={mail} isEmpty={(d) => d.items.length === 0} empty={{ title: 'No mail sent yet', body: 'Invitations, reset links and review notices will be listed here.' }}>
         {(d) => (
           <View>

@@ -21,7 +21,9 @@ export function DecisionRecord({ decision: d, standardId, standardStatus }: Pick
   return (
     <Panel title={approved ? 'Signed off' : 'Returned'} aside={<StatusBadge tone={approved ? 'pass' : 'warning'} label={approved ? 'Approved' : 'Returned'} />} testID="decision-record">
       <View style={styles.list}>
-        <FactRow label="Reviewer" text={d.reviewer.displayName} />
+        <FactRow label="Reviewer" text={d.signer.displayName} />
+        <FactRow label="E-mail" text={d.signer.email} />
+        <FactRow label="In this lab" text={d.signer.origin.text} />
         <FactRow label="When" text={formatDateTime(d.decidedAt)} />
         {d.meaning ? <AppText variant="body">{`Meaning: ${d.meaning}`}</AppText> : null}
         {d.reason ? <AppText variant="body">{`Reason: ${d.reason}`}</AppText> : null}

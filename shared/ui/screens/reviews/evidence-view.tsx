@@ -72,10 +72,11 @@ function SubmissionHead({ labId, submission: s }: { labId: string; submission: S
         </View>
       ) : null}
       {s.status === 'pending' && role === 'reviewer' && s.blockedForYou.length > 0 ? (
-        <Caution title="You may not decide this one">
-          <View style={styles.list}>{s.blockedForYou.map((why) => <AppText key={why} variant="body">{why}</AppText>)}</View>
+        <Caution title={`${s.viewer.displayName} (${s.viewer.email}) may not decide this one`}>
+          <View style={styles.list} testID="blocked-reasons">{s.blockedForYou.map((why) => <AppText key={why} variant="body">{why}</AppText>)}</View>
         </Caution>
       ) : null}
+      {s.status === 'pending' && role === 'reviewer' ? <AppText variant="small" tone="muted" testID="independence-rule">{s.rule}</AppText> : null}
       {s.decision ? <DecisionRecord decision={s.decision} standardId={s.standardId} standardStatus={s.standardStatus} /> : null}
       <ResubmitAction submission={s} />
       <Panel title="Scope">

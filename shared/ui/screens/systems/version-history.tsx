@@ -13,7 +13,7 @@ import { formatDateTime } from '@/shared/ui/screens/kit/figure';
 import { Panel } from '@/shared/ui/screens/kit/panel';
 import { QueryView } from '@/shared/ui/screens/kit/query-view';
 import { colors, space, stroke } from '@/shared/ui/theme';
-import { diffDefinitions, leafText, type FieldChange } from './definition-diff';
+import { diffDefinitions, leafText, type FieldChange } from '@/shared/api/definition-diff';
 
 interface VersionHistoryProps {
   versions: UseQueryResult<VersionInfo[]>;
