@@ -144,3 +144,9 @@ export async function sweepCancelRequested(db: Db, sweepId: string): Promise<boo
   const row = await db('sweeps').where({ id: sweepId }).first('cancel_requested_at');
   return Boolean(row?.cancel_requested_at);
 }
+
+/** The queued or running job of a sweep, if any. */
+export async function openSweepJobId(db: Db, type: string, sweepId: string): Promise<number | undefined> {
+  const job = await db('jobs').where({ type }).whereIn('status', ['queued', 'running']).whereRaw("json_extract(payload, '$.sweepId') = ?", [sweepId]).first('id');
+  return job?.id;
+}

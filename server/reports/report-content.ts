@@ -4,7 +4,7 @@
  * depends on the time it is made, so the same stored data always give the same content and the
  * same sha256.
  */
-import type { ReportContent, Scope, Signature } from '@/shared/api/approval';
+import type { ReportContent, Scope } from '@/shared/api/approval';
 import type { CriterionResult } from '@/shared/api/work';
 import { decisionRuleWords } from '@/shared/engine/scores/decision-rules';
 import { parseRecipe } from '@/shared/engine/recipe';

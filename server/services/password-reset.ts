@@ -16,7 +16,6 @@ import { AppError } from '../errors';
 import type { Logger } from '../logger';
 import type { Mailer } from '../mail/mailer';
 import { resetRequestRefused } from './attempt-limits';
-import { recordAudit } from './audit';
 import { recordAccountEvent } from './account-events';
 import { newToken, sameHash, tokenHash } from './invitations';
 

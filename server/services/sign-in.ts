@@ -9,7 +9,6 @@ import type { Db } from '../db/knex';
 import { findUserByEmail, findUserById, listMemberships } from '../db/users';
 import { AppError } from '../errors';
 import { clearSignInFailures, recordSignInFailure, signInBlocked } from './attempt-limits';
-import { recordAudit } from './audit';
 import { recordAccountEvent } from './account-events';
 import type { MeResponse, SignInRequest } from '@/shared/api/auth';
 

@@ -11,7 +11,7 @@ import { expandSweep, type SweepAxis } from '@/shared/engine/sweep';
 import { ENGINE_VERSION } from '@/shared/engine/version';
 import { enqueueJob, finishJob } from '../db/jobs';
 import type { Db } from '../db/knex';
-import { findSweep, insertSweep, listSweeps, updateSweep, type SweepRow } from '../db/sweeps';
+import { findSweep, insertSweep, listSweeps, openSweepJobId, updateSweep, type SweepRow } from '../db/sweeps';
 import { findResource, findVersion, type VersionedKind } from '../db/versioned';
 import { AppError, notFound } from '../errors';
 import { SWEEP_JOB, type StudyQueue } from '../jobs/scheduler';
@@ -119,8 +119,8 @@ export async function cancelSweep(db: Db, queue: StudyQueue, labId: string, user
     await updateSweep(trx, id, { cancel_requested_at: row.cancel_requested_at ?? now });
     if (row.status === 'queued') {
       await updateSweep(trx, id, { status: 'cancelled', finished_at: now });
-      const job = await trx('jobs').where({ type: SWEEP_JOB }).whereIn('status', ['queued', 'running']).whereRaw("json_extract(payload, '$.sweepId') = ?", [id]).first('id');
-      if (job) await finishJob(trx, job.id, 'cancelled');
+      const jobId = await openSweepJobId(trx, SWEEP_JOB, id);
+      if (jobId) await finishJob(trx, jobId, 'cancelled');
     }
     await recordAudit(trx, { labId, actorUserId: userId, action: 'sweeps.cancel', targetType: 'sweep', targetId: id, before: { status: row.status } });
   });
