@@ -155,6 +155,9 @@ export async function acceptInvitation(db: Db, token: string, input: AcceptInvit
     if (problem) throw new AppError(400, 'weak_password', `password: ${problem}`, { fields: [{ path: 'password', message: problem }] });
     newAccount = { passwordHash: await hashPassword(input.password), displayName: input.displayName };
   }
+  // A simultaneous accept of the same link may have won while this one hashed its password: the
+  // loser is told the link is used (410), not that the name it chose is now taken.
+  await openInvitation(db, token);
   const clash = await displayNameClash(db, inv.lab_id, existing ? existing.display_name : newAccount!.displayName, existing?.id ?? null);
   if (clash) {
     await recordAudit(db, {

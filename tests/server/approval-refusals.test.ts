@@ -8,7 +8,7 @@
  */
 import type request from 'supertest';
 import { startTestServer, TEST_PASSWORD, type TestServer } from './helpers';
-import { auditSince, createWork, editRecipe, finishedStudy, frameRecipe, frameScope, lastAuditId, setRole, signInAll, type Agents, type WorkIds } from './approval-fixtures';
+import { auditSince, createWork, editRecipe, finishedStudy, frameRecipe, frameScenario, frameScope, lastAuditId, setRole, signInAll, type Agents, type WorkIds } from './approval-fixtures';
 import { waitForStudy } from './work-fixtures';
 
 let t: TestServer;
@@ -144,9 +144,11 @@ describe('submissions that are refused', () => {
   });
 
   it('refuses evidence that did not finish, unknown studies and an empty list', async () => {
-    // A block longer than the 16384-sample record: every run fails, so the study ends as failed.
-    const broken = (await as.analyst.post(`${w.lab}/recipes`).send({ definition: { ...frameRecipe('Block too long'), blockLength: 32768 } }).expect(201)).body.id;
-    const started = await as.analyst.post(`${w.lab}/studies`).send({ name: 'Fails', recipe: { id: broken }, scenarios: [{ id: w.scenarios[0] }], seeds: 1 }).expect(202);
+    // A softening cubic spring this strong makes the response diverge (no pre-flight check can
+    // foresee it): every run fails, so the study ends as failed.
+    const broken = (await as.analyst.post(`${w.lab}/recipes`).send({ definition: frameRecipe('Recipe of a failed study') }).expect(201)).body.id;
+    const diverging = (await as.analyst.post(`${w.lab}/scenarios`).send({ definition: { ...frameScenario(0.01, { cubicStiffness: { k3NPerM3: -1e14 } }), name: 'Diverging spring' } }).expect(201)).body.id;
+    const started = await as.analyst.post(`${w.lab}/studies`).send({ name: 'Fails', recipe: { id: broken }, scenarios: [{ id: diverging }], seeds: 1 }).expect(202);
     expect((await waitForStudy(as.analyst, `${w.lab}/studies/${started.body.id}`)).status).toBe('failed');
     const res = await submit(as.analyst, 1, [started.body.id], {}, broken).expect(409);
     expect(res.body.error).toMatchObject({ code: 'study_not_finished', message: 'Study "Fails" is failed: only finished studies count as evidence.' });

@@ -17,6 +17,8 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
+// The auditor's sign-in (recorded in the lab's trail as an account event, services/account-events.ts)
+// and five test steps.
 const EVENTS = 6;
 const NO_UPDATE = `CREATE TRIGGER audit_events_no_update BEFORE UPDATE ON audit_events
   BEGIN SELECT RAISE(ABORT, 'audit_events is append-only: UPDATE refused'); END`;
@@ -38,11 +40,11 @@ function tamper(work: (raw: Database.Database) => void): void {
 /** A lab of its own with EVENTS entries in its chain; returns its id, its rows and its auditor. */
 async function labWithTrail(name: string) {
   const { labId, emails } = await createOtherLab(t.db, name);
-  for (let i = 0; i < EVENTS; i++) {
+  const auditor = await t.signIn(emails.auditor);
+  for (let i = 1; i < EVENTS; i++) {
     await recordAudit(t.db, { labId, actorUserId: null, action: 'test.step', targetType: 'thing', targetId: String(i), after: { step: i } });
   }
   const rows: AuditRow[] = await t.db('audit_events').where({ lab_id: labId }).orderBy('id');
-  const auditor = await t.signIn(emails.auditor);
   const verify = async () => (await auditor.get(`/api/v1/labs/${labId}/audit/verify`).expect(200)).body;
   return { labId, rows, verify };
 }
