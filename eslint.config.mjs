@@ -1,6 +1,7 @@
-// Lint: TypeScript rules plus the dependency direction of the layout (conventions.md):
+// Lint: TypeScript rules, React's rules of hooks, plus the dependency direction of the layout (conventions.md):
 // shared/engine imports nothing of the project outside itself; app/ and shared/ui never import
 // server/; only server/db touches Knex.
+import reactHooks from 'eslint-plugin-react-hooks';
 import tseslint from 'typescript-eslint';
 
 const noServer = {
@@ -23,6 +24,13 @@ export default tseslint.config(
       '@typescript-eslint/no-require-imports': 'off',
       'no-restricted-imports': ['error', { paths: knexPaths }],
     },
+  },
+  // React: the rules of hooks, and complete dependency lists for effects, memos and callbacks (a
+  // missing one is an error, not a warning). The plugin's React Compiler rules are not enabled.
+  {
+    files: ['app/**/*.tsx', 'shared/ui/**/*.{ts,tsx}', 'tests/ui/**/*.{ts,tsx}'],
+    plugins: { 'react-hooks': reactHooks },
+    rules: { 'react-hooks/rules-of-hooks': 'error', 'react-hooks/exhaustive-deps': 'error' },
   },
   {
     files: ['shared/engine/**'],

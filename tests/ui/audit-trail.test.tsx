@@ -1,8 +1,6 @@
-import { fireEvent, screen } from '@testing-library/dom';
-import { act } from 'react';
+import { screen, waitFor } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
-import { press, typeInto } from './support/form';
+import { choose, press, typeInto } from './support/form';
 import { auditEvent, installEvidenceApi, lab, meAs, ok, page, session } from './studies-fixtures';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
@@ -24,10 +22,10 @@ describe('audit trail', () => {
       [`GET ${lab('/members')}`]: ok(page([])),
     });
     await renderApp('/audit');
-    const result = screen.getByTestId('integrity-result');
+    const result = await screen.findByTestId('integrity-result');
     expect(result.textContent).toContain('Intact');
     expect(result.textContent).toContain('all 42 entries were checked');
-    expect(screen.getByTestId('audit-list').textContent).toContain('studies.finish');
+    expect((await screen.findByTestId('audit-list')).textContent).toContain('studies.finish');
     expect(screen.getByTestId('audit-count').textContent).toBe('Entries 1–2 of 2');
     expect(screen.getByTestId('audit-export').getAttribute('href')).toBe(lab('/audit/export'));
   });
@@ -40,7 +38,7 @@ describe('audit trail', () => {
       [`GET ${lab('/members')}`]: ok(page([])),
     });
     await renderApp('/audit');
-    const result = screen.getByTestId('integrity-result');
+    const result = await screen.findByTestId('integrity-result');
     expect(result.textContent).toContain('Broken');
     expect(result.textContent).toContain('broken at entry 9: its contents no longer match its stored hash');
   });
@@ -53,38 +51,36 @@ describe('audit trail', () => {
       [`GET ${lab('/members')}`]: ok(page([{ userId: 'user-analyst', email: 'analyst@harborridge.test', displayName: 'Tomas Lindqvist', role: 'analyst', joinedAt: 1 }])),
     });
     await renderApp('/audit');
+    await screen.findByTestId('audit-list');
     await typeInto('Action', 'studies.*');
     await typeInto('From (UTC day)', '1 Dec');
     await press('button', 'Apply filters');
-    expect(screen.getByText('Use a date such as 2026-12-01')).toBeTruthy();
+    expect(await screen.findByText('Use a date such as 2026-12-01')).toBeTruthy();
     expect(api.called('GET', lab('/audit')).at(-1)!.query.get('action')).toBeNull();
     await typeInto('From (UTC day)', '2026-11-01');
     await press('button', 'Apply filters');
-    const q = api.called('GET', lab('/audit')).at(-1)!.query;
-    expect(q.get('action')).toBe('studies.*');
+    const lastAudit = () => api.called('GET', lab('/audit')).at(-1)!.query;
+    await waitFor(() => expect(lastAudit().get('action')).toBe('studies.*'));
+    const q = lastAudit();
     expect(q.get('from')).toBe('2026-11-01');
     expect(q.get('offset')).toBe('0');
 
     // "Who": one person, then "Anyone" again (the empty choice stays selectable).
-    const who = async (value: string) => {
-      await act(async () => {
-        fireEvent.change(screen.getByLabelText('Who'), { target: { value } });
-      });
-      await settle();
-      await press('button', 'Apply filters');
-      return api.called('GET', lab('/audit')).at(-1)!.query.get('actor');
-    };
-    expect(await who('user-analyst')).toBe('user-analyst');
+    await choose('Who', 'user-analyst');
+    await press('button', 'Apply filters');
+    await waitFor(() => expect(lastAudit().get('actor')).toBe('user-analyst'));
     // (A new action too, so the answer is not the one cached for the same filters.)
     await typeInto('Action', 'studies.start');
-    expect(await who('')).toBeNull();
-    expect(api.called('GET', lab('/audit')).at(-1)!.query.get('action')).toBe('studies.start');
+    await choose('Who', '');
+    await press('button', 'Apply filters');
+    await waitFor(() => expect(lastAudit().get('action')).toBe('studies.start'));
+    expect(lastAudit().get('actor')).toBeNull();
   });
 
   test('an analyst is told the trail is not for their role, and nothing is asked of the server', async () => {
     const api = installEvidenceApi({ ...session(meAs('analyst')) });
     await renderApp('/audit');
-    expect(screen.getByTestId('role-refused').textContent).toContain('Not for your role');
+    expect((await screen.findByTestId('role-refused')).textContent).toContain('Not for your role');
     expect(api.called('GET', lab('/audit'))).toHaveLength(0);
   });
 });
