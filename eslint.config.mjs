@@ -1,7 +1,8 @@
-// Lint: TypeScript rules plus the dependency direction of the layout (docs/conventions.md):
+// Lint: TypeScript rules, React's rules of hooks, plus the dependency direction of the layout (docs/conventions.md):
 // shared/engine imports nothing of the project outside itself; app/ and shared/ui never import
 // server/; only server/db touches Knex. tests/server/lint-boundaries.test.ts lints violating
 // snippets at virtual paths to prove each rule fires.
+import reactHooks from 'eslint-plugin-react-hooks';
 import tseslint from 'typescript-eslint';
 
 const noServer = {
@@ -49,6 +50,13 @@ export default tseslint.config(
   engineAt(['shared/engine/*'], 0),
   engineAt(['shared/engine/*/*'], 1),
   engineAt(['shared/engine/*/*/**'], 2),
+  // React: the rules of hooks, and complete dependency lists for effects, memos and callbacks (a
+  // missing one is an error, not a warning). The plugin's React Compiler rules are not enabled.
+  {
+    files: ['app/**/*.tsx', 'shared/ui/**/*.{ts,tsx}', 'tests/ui/**/*.{ts,tsx}'],
+    plugins: { 'react-hooks': reactHooks },
+    rules: { 'react-hooks/rules-of-hooks': 'error', 'react-hooks/exhaustive-deps': 'error' },
+  },
   {
     files: ['app/**', 'shared/ui/**', 'shared/api/**'],
     rules: { 'no-restricted-imports': ['error', { paths: knexPaths, patterns: [noServer] }] },

@@ -35,6 +35,12 @@ module.exports = {
       displayName: 'ui',
       preset: 'jest-expo/web',
       roots: ['<rootDir>/tests/ui'],
+      // Whole screens render in jsdom on a shared, often busy machine. Tests wait for what they read
+      // (never a fixed time); these limits only end a test that is really stuck. Jest reads
+      // `testTimeout` from the top-level config alone, so the UI project's limit goes to its set-up
+      // file (tests/ui/support/setup.ts), which calls jest.setTimeout with it.
+      globals: { uiTestTimeoutMs: 120_000 },
+      setupFilesAfterEnv: ['<rootDir>/tests/ui/support/setup.ts'],
       // The project has no babel.config.js (Metro uses babel-preset-expo by default), so the
       // preset's babel-jest transform is given the preset explicitly.
       transform: {

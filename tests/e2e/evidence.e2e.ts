@@ -34,6 +34,9 @@ async function byName(api: APIRequestContext, path: string, name: string): Promi
   return found;
 }
 
+/** How long the 2-seed evidence study may take on a busy machine before the journey fails. */
+const STUDY_DEADLINE_MS = 180_000;
+
 /** A pending submission for the reviewer: the demo study (phone) or a fresh 2-seed study (wide). */
 async function prepareSubmission(h: Harness, viewport: ViewportName): Promise<string> {
   const { api, labId } = await apiAs(h, 'analyst@harborridge.test');
@@ -56,10 +59,16 @@ async function prepareSubmission(h: Harness, viewport: ViewportName): Promise<st
       const started = await api.post(`${lab}/studies`, { data: { name: 'Arm evidence for review', recipe: { id: recipe.id }, scenarios: [{ id: scenario.id }], seeds: 2 } });
       expect(started.status() === 202, `starting the evidence study answered ${started.status()}`);
       const { id } = (await started.json()) as { id: string };
-      for (let i = 0; i < 120; i++) {
-        const s = await getJson<{ status: string }>(api, `${lab}/studies/${id}`);
+      // Wait for it to finish; at the deadline fail saying so, rather than submit an unfinished study.
+      const deadline = Date.now() + STUDY_DEADLINE_MS;
+      for (;;) {
+        const s = await getJson<{ status: string; progress: { done: number; total: number } }>(api, `${lab}/studies/${id}`);
         if (s.status === 'finished') break;
         expect(s.status === 'queued' || s.status === 'running', `the evidence study ended ${s.status}`);
+        expect(
+          Date.now() < deadline,
+          `the evidence study was still ${s.status} (${s.progress.done} of ${s.progress.total} runs) after ${STUDY_DEADLINE_MS / 1000} s`,
+        );
         await new Promise((r) => setTimeout(r, 500));
       }
       body = {

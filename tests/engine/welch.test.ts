@@ -2,6 +2,8 @@
  * Welch cross-spectra: SciPy golden vectors, Parseval, a sine peak, identities, Welch's overlap
  * variance formula by Monte Carlo, and every validation branch.
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { accumulateCrossSpectra, effectiveAverages, welchCrossSpectra, type WelchOptions } from '@/shared/engine/welch';
 import { overlapCorrelation, windowSamples } from '@/shared/engine/windows';
 import { EngineInputError } from '@/shared/engine/errors';
@@ -16,6 +18,7 @@ import {
   maxRelativeDifference,
   meanAndVariance,
   scipySignals,
+  SCIPY_FILES,
 } from './spectra-helpers';
 
 const TOLERANCE = 1e-10; // docs/engine.md: agree with SciPy to ≤ 1e-10 relative
@@ -23,10 +26,58 @@ const TOLERANCE = 1e-10; // docs/engine.md: agree with SciPy to ≤ 1e-10 relati
 describe('Welch spectra against SciPy welch / csd / coherence', () => {
   // Source: SciPy scipy.signal.welch, csd, coherence; fixtures and their seed/version from
   // tests/fixtures/scipy/make-fixtures.py. scipy csd(x, y) = mean conj(X)·Y = our Gyx.
-  it('fixtures were made by SciPy with the recorded seed', () => {
-    const f = loadScipyFixture<ScipyFile>('welch-windows.json');
-    expect(f.scipy).toMatch(/^1\.\d+/);
-    expect(f.seed).toBe(20261201);
+  it("every fixture was made by the repository's script, in one run, with its seed and sample rate", () => {
+    // The constants of tests/fixtures/scipy/make-fixtures.py, read from the script itself: a
+    // fixture left over from another seed, rate or script version fails here.
+    const script = readFileSync(join(__dirname, '..', 'fixtures', 'scipy', 'make-fixtures.py'), 'utf8');
+    const constant = (name: string) => Number(new RegExp(`^${name} = ([0-9.]+)$`, 'm').exec(script)![1]);
+    const [seed, sampleRateHz, samples] = [constant('SEED'), constant('FS'), constant('SAMPLES')];
+    const signals = loadScipyFixture<ScipyFile & { generator: string; sampleRateHz: number; x: string[]; y: string[] }>('signals.json');
+    expect(signals.x).toHaveLength(samples);
+    expect(signals.y).toHaveLength(samples);
+    for (const name of ['signals.json', 'windows.json', ...SCIPY_FILES]) {
+      const f = loadScipyFixture<ScipyFile & { generator: string; sampleRateHz: number }>(name);
+      expect({ name, generator: f.generator, seed: f.seed, sampleRateHz: f.sampleRateHz, scipy: f.scipy }).toEqual({
+        name,
+        generator: 'tests/fixtures/scipy/make-fixtures.py',
+        seed,
+        sampleRateHz,
+        scipy: signals.scipy,
+      });
+    }
+    // Welch's block count for the stored signal length (scipy.signal.welch: (n − N)/(N − overlap) + 1).
+    for (const [, c] of scipyCases()) {
+      const step = c.options.blockLength - Math.round(c.options.overlap * c.options.blockLength);
+      expect(c.blocks).toBe(Math.floor((samples - c.options.blockLength) / step) + 1);
+    }
+  });
+
+  it('a stored SciPy value is recomputed from the stored samples by a plain DFT', () => {
+    // Independent of the engine: rectangular window, N = 256, 50 % overlap, no detrend, density.
+    // One-sided PSD at an interior line k: Gxx[k] = 2/(fs·N) · mean over blocks of |Σ x[n]·e^(−2πikn/N)|²
+    // (scipy.signal.welch with window='boxcar', scaling='density'; Σw² = N for the boxcar).
+    const c = loadScipyFixture<ScipyFile>('welch-windows.json').cases.find((k) => k.options.window === 'rectangular')!;
+    expect(c.options).toMatchObject({ blockLength: 256, overlap: 0.5, detrend: 'none', scaling: 'density', signals: 'plain' });
+    const { x, sampleRateHz } = scipySignals();
+    const n = 256;
+    for (const k of [7, 31, 100]) {
+      let sum = 0;
+      let blocks = 0;
+      for (let start = 0; start + n <= x.length; start += n / 2) {
+        let re = 0;
+        let im = 0;
+        for (let i = 0; i < n; i++) {
+          re += x[start + i] * Math.cos((2 * Math.PI * k * i) / n);
+          im -= x[start + i] * Math.sin((2 * Math.PI * k * i) / n);
+        }
+        sum += re * re + im * im;
+        blocks++;
+      }
+      expect(blocks).toBe(c.blocks);
+      expect(c.frequenciesHz[k]).toBe((k * sampleRateHz) / n);
+      const gxx = (2 / (sampleRateHz * n)) * (sum / blocks);
+      expect(Math.abs(gxx / c.gxx[k] - 1)).toBeLessThan(1e-9);
+    }
   });
   it.each(scipyCases())('%s', (_label, c) => {
     const s = spectraForCase(c);

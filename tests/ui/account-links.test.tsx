@@ -19,7 +19,7 @@ describe('accepting an invitation', () => {
   test('the preview shows lab, role and address; the password rule is the server’s', async () => {
     const api = installEvidenceApi({ ...signedOut, [`GET /api/v1/invitations/${TOKEN}`]: preview(false) });
     await renderApp(`/accept-invitation?token=${TOKEN}`);
-    const facts = screen.getByTestId('invitation-preview').textContent;
+    const facts = (await screen.findByTestId('invitation-preview')).textContent;
     expect(facts).toContain('Harbor Ridge Test Lab');
     expect(facts).toContain('Analyst');
     expect(facts).toContain('priya.venkat@example.test');
@@ -28,20 +28,20 @@ describe('accepting an invitation', () => {
     await typeInto('New password', 'short');
     await press('button', 'Join the lab');
     // passwordProblem in shared/api/people.ts: at least 12 characters.
-    expect(screen.getByText('Use at least 12 characters.')).toBeTruthy();
+    expect(await screen.findByText('Use at least 12 characters.')).toBeTruthy();
 
     await typeInto('New password', 'password1234');
     await press('button', 'Join the lab');
-    expect(screen.getByText('This password is too common; choose another.')).toBeTruthy();
+    expect(await screen.findByText('This password is too common; choose another.')).toBeTruthy();
 
     await typeInto('New password', 'priya.venkat@example.test');
     await press('button', 'Join the lab');
-    expect(screen.getByText('Do not use your e-mail address as the password.')).toBeTruthy();
+    expect(await screen.findByText('Do not use your e-mail address as the password.')).toBeTruthy();
 
     await typeInto('New password', 'plumb bob over the arm');
     await typeInto('New password again', 'plumb bob over the frame');
     await press('button', 'Join the lab');
-    expect(screen.getByText('The two passwords differ')).toBeTruthy();
+    expect(await screen.findByText('The two passwords differ')).toBeTruthy();
     expect(api.called('POST', `/api/v1/invitations/${TOKEN}/accept`)).toHaveLength(0);
   });
 
@@ -58,25 +58,26 @@ describe('accepting an invitation', () => {
     await typeInto('New password', 'plumb bob over the arm');
     await typeInto('New password again', 'plumb bob over the arm');
     await press('button', 'Join the lab');
+    expect((await screen.findByTestId('header-user')).textContent).toContain('Priya Venkat');
     expect(api.called('POST', `/api/v1/invitations/${TOKEN}/accept`)[0].body).toEqual({ displayName: 'Priya Venkat', password: 'plumb bob over the arm' });
     expect(window.location.pathname).toBe('/');
-    expect(screen.getByTestId('header-user').textContent).toContain('Priya Venkat');
   });
 
   test('with no name given, only the password is sent (an existing account)', async () => {
     const api = installEvidenceApi({ ...signedOut, [`GET /api/v1/invitations/${TOKEN}`]: preview(true), [`POST /api/v1/invitations/${TOKEN}/accept`]: { status: 401, body: { error: { code: 'invalid_credentials', message: 'The password is not right.' } } } });
     await renderApp(`/accept-invitation?token=${TOKEN}`);
+    await screen.findByTestId('invitation-preview');
     // The page looks the same whether or not the address has an account; no name means "existing".
     await typeInto('Your password', 'my current password');
     await press('button', 'Join the lab');
+    expect((await screen.findByTestId('accept-error')).textContent).toBe('The password is not right.');
     expect(api.called('POST', `/api/v1/invitations/${TOKEN}/accept`)[0].body).toEqual({ password: 'my current password' });
-    expect(screen.getByTestId('accept-error').textContent).toBe('The password is not right.');
   });
 
   test('a used or expired link says it cannot be used', async () => {
     installEvidenceApi({ ...signedOut, [`GET /api/v1/invitations/${TOKEN}`]: { status: 410, body: { error: { code: 'invitation_expired', message: 'This invitation has expired. Ask your lab admin for a new one.' } } } });
     await renderApp(`/accept-invitation?token=${TOKEN}`);
-    expect(screen.getByTestId('error-state').textContent).toContain('This invitation has expired');
+    expect((await screen.findByTestId('error-state')).textContent).toContain('This invitation has expired');
   });
 });
 
@@ -86,11 +87,12 @@ describe('password reset', () => {
     await renderApp('/reset-password');
     await typeInto('E-mail', 'dana@');
     await press('button', 'Send the reset link');
-    expect(screen.getByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
+    expect(await screen.findByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
+    expect(api.called('POST', '/api/v1/auth/password-reset')).toHaveLength(0);
     await typeInto('E-mail', 'Dana@Example.test');
     await press('button', 'Send the reset link');
+    expect((await screen.findByTestId('reset-requested')).textContent).toBe('If the address has an account, a reset link is on its way.');
     expect(api.called('POST', '/api/v1/auth/password-reset')[0].body).toEqual({ email: 'dana@example.test' });
-    expect(screen.getByTestId('reset-requested').textContent).toBe('If the address has an account, a reset link is on its way.');
   });
 
   test('the link sets a new password under the server’s rule and says sessions ended', async () => {
@@ -98,11 +100,11 @@ describe('password reset', () => {
     await renderApp(`/reset-password?token=${TOKEN}`);
     await typeInto('New password', 'qwertyuiop12');
     await press('button', 'Set the new password');
-    expect(screen.getByText('This password is too common; choose another.')).toBeTruthy();
+    expect(await screen.findByText('This password is too common; choose another.')).toBeTruthy();
     await typeInto('New password', 'a long line down the frame');
     await typeInto('New password again', 'a long line down the frame');
     await press('button', 'Set the new password');
+    expect((await screen.findByTestId('reset-done')).textContent).toContain('Every earlier session of your account has ended');
     expect(api.called('POST', '/api/v1/auth/password-reset/confirm')[0].body).toEqual({ token: TOKEN, password: 'a long line down the frame' });
-    expect(screen.getByTestId('reset-done').textContent).toContain('Every earlier session of your account has ended');
   });
 });

@@ -1,7 +1,6 @@
-import { fireEvent, screen, within } from '@testing-library/dom';
+import { fireEvent, screen, waitFor, within } from '@testing-library/dom';
 import { act } from 'react';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
 import { press, typeInto } from './support/form';
 import { installEvidenceApi, lab, meAs, ok, page, session } from './studies-fixtures';
 
@@ -27,7 +26,7 @@ describe('lab admin', () => {
   test('other roles see a plain "not for your role" state and no member list', async () => {
     const api = installEvidenceApi({ ...session(meAs('reviewer')) });
     await renderApp('/lab');
-    expect(screen.getByTestId('role-refused').textContent).toContain('Not for your role');
+    expect((await screen.findByTestId('role-refused')).textContent).toContain('Not for your role');
     expect(api.called('GET', lab('/members'))).toHaveLength(0);
   });
 
@@ -35,13 +34,13 @@ describe('lab admin', () => {
     const api = installEvidenceApi({ ...adminRoutes, [`PATCH ${lab('/members/user-analyst')}`]: ok(member('user-analyst', 'Tomas Lindqvist', 'analyst@harborridge.test', 'reviewer')) });
     await renderApp('/lab');
     await act(async () => {
-      fireEvent.change(screen.getByLabelText('Role of Tomas Lindqvist'), { target: { value: 'reviewer' } });
+      fireEvent.change(await screen.findByLabelText('Role of Tomas Lindqvist'), { target: { value: 'reviewer' } });
     });
-    await settle();
-    const dialog = screen.getByRole('dialog', { name: "Change this member's role?" });
+    const dialog = await screen.findByRole('dialog', { name: "Change this member's role?" });
     expect(dialog.textContent).toContain('Tomas Lindqvist goes from Analyst to Reviewer');
     expect(api.called('PATCH', lab('/members/user-analyst'))).toHaveLength(0);
     await press('button', 'Change the role');
+    await waitFor(() => expect(api.called('PATCH', lab('/members/user-analyst'))).toHaveLength(1));
     expect(api.called('PATCH', lab('/members/user-analyst'))[0].body).toEqual({ role: 'reviewer' });
   });
 
@@ -50,31 +49,32 @@ describe('lab admin', () => {
     await renderApp('/lab');
     await typeInto('E-mail to invite', 'priya@');
     await press('button', 'Send the invitation');
-    expect(screen.getByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
+    expect(await screen.findByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
     expect(api.called('POST', lab('/invitations'))).toHaveLength(0);
     await typeInto('E-mail to invite', ' Priya@Example.test ');
-    await press('radio' as 'button', 'Auditor');
+    await press('radio', 'Auditor');
+    await waitFor(() => expect(screen.getByRole('radio', { name: 'Auditor' }).getAttribute('aria-checked')).toBe('true'));
     await press('button', 'Send the invitation');
+    expect(await screen.findByText('Invitation sent to priya@example.test; the link is valid for 72 hours.')).toBeTruthy();
     expect(api.called('POST', lab('/invitations'))[0].body).toEqual({ email: 'priya@example.test', role: 'auditor' });
-    expect(screen.getByText('Invitation sent to priya@example.test; the link is valid for 72 hours.')).toBeTruthy();
   });
 
   test('revoking asks first and then DELETEs the invitation; sent mail is listed', async () => {
     const api = installEvidenceApi({ ...adminRoutes, [`DELETE ${lab('/invitations/inv-1')}`]: { status: 204 } });
     await renderApp('/lab');
-    expect(screen.getByTestId('mail-panel').textContent).toContain('You are invited to Harbor Ridge Test Lab');
+    await waitFor(() => expect(screen.getByTestId('mail-panel').textContent).toContain('You are invited to Harbor Ridge Test Lab'));
     await press('button', 'Revoke new.analyst@example.test');
-    const dialog = screen.getByRole('dialog', { name: 'Revoke this invitation?' });
+    const dialog = await screen.findByRole('dialog', { name: 'Revoke this invitation?' });
+    expect(api.called('DELETE', lab('/invitations/inv-1'))).toHaveLength(0);
     await act(async () => {
       fireEvent.click(within(dialog).getByRole('button', { name: 'Revoke it' }));
     });
-    await settle(6);
-    expect(api.called('DELETE', lab('/invitations/inv-1'))).toHaveLength(1);
+    await waitFor(() => expect(api.called('DELETE', lab('/invitations/inv-1'))).toHaveLength(1));
   });
 
   test('with real SMTP the mail panel says where mail goes instead of an error', async () => {
     installEvidenceApi({ ...adminRoutes, [`GET ${lab('/mail')}`]: { status: 409, body: { error: { code: 'mail_view_off', message: 'Mail goes to a real SMTP server.' } } } });
     await renderApp('/lab');
-    expect(screen.getByText(/Mail goes to a real mail server/)).toBeTruthy();
+    expect(await screen.findByText(/Mail goes to a real mail server/)).toBeTruthy();
   });
 });

@@ -1,7 +1,6 @@
-import { fireEvent, screen, within } from '@testing-library/dom';
-import { act } from 'react';
+import { screen, waitFor, within } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
+import { choose } from './support/form';
 import { installEvidenceApi, lab, meAs, ok, page, runningStudy, session, standard, study, submission } from './studies-fixtures';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
@@ -23,10 +22,10 @@ describe('home (bench)', () => {
       [`GET ${lab('/standards')}`]: ok(page([])),
     });
     await renderApp('/');
-    expect(screen.getByTestId('home-running').textContent).toContain('No study is running');
-    expect(screen.getByTestId('home-results').textContent).toContain('No results yet');
-    expect(screen.getByTestId('home-reviews').textContent).toContain('Nothing is waiting for review');
-    expect(screen.getByTestId('home-due').textContent).toContain('None due in the next 60 days');
+    await waitFor(() => expect(screen.getByTestId('home-running').textContent).toContain('No study is running'));
+    await waitFor(() => expect(screen.getByTestId('home-results').textContent).toContain('No results yet'));
+    await waitFor(() => expect(screen.getByTestId('home-reviews').textContent).toContain('Nothing is waiting for review'));
+    await waitFor(() => expect(screen.getByTestId('home-due').textContent).toContain('None due in the next 60 days'));
   });
 
   test('running studies show their progress, results their verdicts, and a reviewer sees what waits for them', async () => {
@@ -37,13 +36,11 @@ describe('home (bench)', () => {
       [`GET ${lab('/standards')}`]: ok(page([standard()])),
     });
     await renderApp('/');
-    const running = screen.getByTestId('home-running');
-    expect(within(running).getByRole('progressbar').getAttribute('aria-valuenow')).toBe('3');
-    expect(within(screen.getByTestId('home-results')).getByText('Fail')).toBeTruthy();
-    const reviews = screen.getByTestId('home-reviews');
-    expect(reviews.textContent).toContain('Reviews waiting for you');
-    expect(within(reviews).getAllByRole('link', { name: 'Arm shaker, burst random v1' })).toHaveLength(1);
-    expect(screen.getByTestId('home-due').textContent).toContain('Review due');
+    await waitFor(() => expect(within(screen.getByTestId('home-running')).getByRole('progressbar').getAttribute('aria-valuenow')).toBe('3'));
+    expect(await within(screen.getByTestId('home-results')).findByText('Fail')).toBeTruthy();
+    await waitFor(() => expect(screen.getByTestId('home-reviews').textContent).toContain('Reviews waiting for you'));
+    expect(within(screen.getByTestId('home-reviews')).getAllByRole('link', { name: 'Arm shaker, burst random v1' })).toHaveLength(1);
+    await waitFor(() => expect(screen.getByTestId('home-due').textContent).toContain('Review due'));
     const due = api.called('GET', lab('/standards'))[0].query.get('dueBefore');
     expect(Number(due)).toBeGreaterThan(Date.now() + 59 * 86_400_000);
   });
@@ -56,12 +53,9 @@ describe('home (bench)', () => {
       'GET /api/v1/labs/lab-quarry/studies': ok(page([])), 'GET /api/v1/labs/lab-quarry/reviews': ok(page([])), 'GET /api/v1/labs/lab-quarry/standards': ok(page([])),
     });
     await renderApp('/');
-    await act(async () => {
-      fireEvent.change(screen.getByLabelText('Lab'), { target: { value: 'lab-quarry' } });
-    });
-    await settle(6);
+    await choose('Lab', 'lab-quarry');
+    await waitFor(() => expect(screen.getByTestId('header-user').textContent).toContain('Reviewer'));
     expect(localStorage.getItem('plumbline.selectedLab')).toBe('lab-quarry');
-    expect(api.called('GET', '/api/v1/labs/lab-quarry/reviews').length).toBeGreaterThan(0);
-    expect(screen.getByTestId('header-user').textContent).toContain('Reviewer');
+    await waitFor(() => expect(api.called('GET', '/api/v1/labs/lab-quarry/reviews').length).toBeGreaterThan(0));
   });
 });

@@ -1,4 +1,4 @@
-import { screen, within } from '@testing-library/dom';
+import { screen, waitFor, within } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
 import { demoMe, installFakeApi, signedInAs, signedOut } from './support/fake-api';
 import { press } from './support/form';
@@ -8,7 +8,6 @@ jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModu
 
 const signedIn = signedInAs(demoMe);
 
-
 describe('navigation at phone width (390 px)', () => {
   beforeEach(() => setWindowWidth(390));
 
@@ -16,7 +15,7 @@ describe('navigation at phone width (390 px)', () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/');
 
-    const tabBar = screen.getByRole('tablist', { name: 'Areas' });
+    const tabBar = await screen.findByRole('tablist', { name: 'Areas' });
     const names = within(tabBar)
       .getAllByRole('tab')
       .map((tab) => tab.getAttribute('aria-label'));
@@ -30,11 +29,11 @@ describe('navigation at phone width (390 px)', () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/more');
     const more = ['Standards', 'Reviews', 'Lab', 'About'];
-    for (const name of more) expect(screen.getByRole('link', { name })).toBeTruthy();
+    for (const name of more) expect(await screen.findByRole('link', { name })).toBeTruthy();
 
     await press('link', 'Standards');
 
-    expect(screen.getByTestId('screen-title').textContent).toBe('Standards');
+    await waitFor(() => expect(screen.getByTestId('screen-title').textContent).toBe('Standards'));
     expect(screen.getByRole('tab', { selected: true }).getAttribute('aria-label')).toBe('More');
   });
 
@@ -48,11 +47,11 @@ describe('navigation at phone width (390 px)', () => {
 
     await press('tab', 'Scenarios');
 
+    await waitFor(() => expect(screen.getByTestId('screen-title').textContent).toBe('Scenarios'));
     expect(window.location.pathname).toBe('/scenarios');
-    expect(screen.getByTestId('screen-title').textContent).toBe('Scenarios');
     expect(screen.getByText(/puts a system under test conditions/)).toBeTruthy();
-    // The list arrives after the screen: wait for it (a loaded machine can take seconds).
-    expect((await screen.findByTestId('empty-state', {}, { timeout: 10_000 })).textContent).toContain('No scenarios yet');
+    // The list arrives after the screen.
+    expect((await screen.findByTestId('empty-state')).textContent).toContain('No scenarios yet');
   });
 });
 
@@ -63,7 +62,7 @@ describe('navigation at wide width (1280 px)', () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedIn });
     await renderApp('/studies');
 
-    const rail = screen.getByRole('navigation', { name: 'Areas' });
+    const rail = await screen.findByRole('navigation', { name: 'Areas' });
     const links = within(rail).getAllByRole('link');
     expect(links.map((link) => link.getAttribute('aria-label'))).toEqual([
       'Bench',
@@ -91,14 +90,14 @@ describe('signed-in header', () => {
       'POST /api/v1/auth/sign-out': { status: 204 },
     });
     await renderApp('/recipes');
-    expect(screen.getByTestId('header-lab').textContent).toBe('Harbor Ridge Test Lab');
+    expect((await screen.findByTestId('header-lab')).textContent).toBe('Harbor Ridge Test Lab');
     expect(screen.getByTestId('header-user').textContent).toContain('Mira Okafor');
 
     await press('button', 'Sign out');
 
+    expect(await screen.findByLabelText('E-mail')).toBeTruthy();
     expect(api.calls.some((call) => call.method === 'POST' && call.path === '/api/v1/auth/sign-out')).toBe(true);
-    expect(window.location.pathname).toBe('/sign-in');
-    expect(screen.getByLabelText('E-mail')).toBeTruthy();
+    await waitFor(() => expect(window.location.pathname).toBe('/sign-in'));
     expect(screen.queryByRole('tablist')).toBeNull();
   });
 });
@@ -110,8 +109,8 @@ describe('About', () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedOut });
     await renderApp('/about');
 
+    const cautions = await screen.findByTestId('cautions');
     expect(window.location.pathname).toBe('/about');
-    const cautions = screen.getByTestId('cautions');
     expect(cautions.textContent).toContain('verifies the processing, not the transducers');
     expect(cautions.textContent).toContain('does not replace calibration');
     expect(cautions.textContent).toContain('moving masses and high forces');

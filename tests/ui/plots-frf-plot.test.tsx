@@ -4,11 +4,11 @@
  * The read-out values are checked against the analytic SDOF receptance 1/(k − mω² + jcω)
  * (standard vibration textbook result, e.g. S. S. Rao, Mechanical Vibrations).
  */
-import { fireEvent, screen, within } from '@testing-library/dom';
+import { fireEvent, screen, waitFor, within } from '@testing-library/dom';
 import { act } from 'react';
 import { exportFileName, FrfPlot, LinePlot, panelSvg } from '@/shared/ui/plots';
 import { curveColors } from '@/shared/ui/theme';
-import { renderDom, settle } from './support/dom';
+import { renderDom } from './support/dom';
 
 // jsdom has no PointerEvent; a MouseEvent with pointerType stands in, so clientX reaches the plot.
 class TestPointerEvent extends MouseEvent {
@@ -53,7 +53,8 @@ async function renderFrf() {
       testID="frf"
     />,
   );
-  await settle();
+  // The frames draw once the panel knows its width.
+  await waitFor(() => expect(screen.getByTestId('frf-magnitude').querySelectorAll('path').length).toBeGreaterThan(0));
   return result;
 }
 
@@ -182,8 +183,8 @@ describe('LinePlot', () => {
         testID="coh"
       />,
     );
-    await settle();
-    const frame = screen.getByTestId('coh-frame');
+    const frame = await screen.findByTestId('coh-frame');
+    await waitFor(() => expect(frame.querySelectorAll('text[text-anchor="end"]').length).toBeGreaterThan(0));
     const labels = Array.from(frame.querySelectorAll('text[text-anchor="end"]')).map((t) => t.textContent);
     expect(labels).toEqual(['0', '0.2', '0.4', '0.6', '0.8', '1']);
     expect(screen.getByText('Minimum coherence 0.8')).toBeTruthy();
@@ -205,9 +206,8 @@ describe('LinePlot', () => {
         testID="pvo"
       />,
     );
-    await settle();
-    const frame = screen.getByTestId('pvo-frame');
-    expect(frame.querySelectorAll('circle')).toHaveLength(3);
+    const frame = await screen.findByTestId('pvo-frame');
+    await waitFor(() => expect(frame.querySelectorAll('circle')).toHaveLength(3));
     expect(screen.getByText('Observed = predicted')).toBeTruthy();
   });
 });

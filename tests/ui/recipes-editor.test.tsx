@@ -4,18 +4,15 @@
  * tolerances docs/engine.md gives), the Hv weighting note, the engine's advice for a scenario
  * (Δf ≤ B_r/4 with B_r = 2ζf_n: common practice), saving, and version differences.
  */
-import { fireEvent, screen, within } from '@testing-library/dom';
+import { fireEvent, screen, waitFor, within } from '@testing-library/dom';
 import { act } from 'react';
 import frameOutputNoise from '@/scenarios/frame-output-noise.json';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
 import { demoMe, installFakeApi, signedInAs } from './support/fake-api';
 import { press, typeInto } from './support/form';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
 jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
-// Whole screens with the engine at work in jsdom; the machine is shared, so allow for a slow run.
-jest.setTimeout(30_000);
 
 const lab = '/api/v1/labs/lab-harbor-ridge';
 const page = (kind: string, limit = 20) => `${lab}/${kind}?limit=${limit}&offset=0&sort=updatedAt&order=desc`;
@@ -47,10 +44,10 @@ const survey = {
 
 beforeEach(() => setWindowWidth(390));
 
-async function click(role: string, name: string) {
-  await act(async () => {
-    fireEvent.click(screen.getByRole(role, { name }));
-  });
+/** Chooses a chip of a radio group and waits until it shows as chosen. */
+async function pick(name: string) {
+  await press('radio', name);
+  await waitFor(() => expect(screen.getByRole('radio', { name }).getAttribute('aria-checked')).toBe('true'));
 }
 
 function figure(label: string): string {
@@ -67,7 +64,7 @@ describe('recipe editor', () => {
     await typeInto('Overlap', '1');
     await typeInto('Block length N (samples)', '1000');
     await press('button', 'Save recipe');
-    expect(screen.getByText('must not be empty')).toBeTruthy();
+    expect(await screen.findByText('must not be empty')).toBeTruthy();
     expect(screen.getByText('must be in [0, 1)')).toBeTruthy();
     expect(screen.getByText('must be a power of two in [4, 16777216]')).toBeTruthy();
     expect(api.calls.filter((c) => c.method === 'POST')).toHaveLength(0);
@@ -76,14 +73,15 @@ describe('recipe editor', () => {
   test('the window figures follow the chosen window (Harris 1978)', async () => {
     installFakeApi(session);
     await renderApp('/recipes/new');
+    await screen.findByTestId('window-figures');
     // Hann: ENBW 1.50 bins, scalloping loss 1.42 dB, highest side lobe −32 dB (−31.5), 16.7 % at 50 %.
-    expect(figure('Equivalent noise bandwidth')).toBe('1.50 bins');
+    await waitFor(() => expect(figure('Equivalent noise bandwidth')).toBe('1.50 bins'));
     expect(figure('Scalloping loss')).toBe('1.42 dB');
     expect(Number(figure('Highest side lobe').replace(' dB', ''))).toBeCloseTo(-31.5, 0);
     expect(figure('Overlap correlation at 50 %')).toBe('16.7 %');
-    await click('radio', 'Rectangular');
+    await pick('Rectangular');
     // Rectangular: ENBW 1.00 bin, scalloping loss 3.92 dB, highest side lobe −13 dB, 50.0 % at 50 %.
-    expect(figure('Equivalent noise bandwidth')).toBe('1 bins');
+    await waitFor(() => expect(figure('Equivalent noise bandwidth')).toBe('1 bins'));
     expect(figure('Scalloping loss')).toBe('3.92 dB');
     expect(Number(figure('Highest side lobe').replace(' dB', ''))).toBeCloseTo(-13.3, 0);
     expect(figure('Overlap correlation at 50 %')).toBe('50 %');
@@ -92,9 +90,10 @@ describe('recipe editor', () => {
   test('choosing Hv shows the weighting note and its weight field', async () => {
     installFakeApi(session);
     await renderApp('/recipes/new');
+    await screen.findByRole('radio', { name: 'Hv (total least squares)' });
     expect(screen.queryByTestId('hv-note')).toBeNull();
-    await click('radio', 'Hv (total least squares)');
-    expect(screen.getByTestId('hv-note').textContent).toContain('depends on channel scaling');
+    await pick('Hv (total least squares)');
+    expect((await screen.findByTestId('hv-note')).textContent).toContain('depends on channel scaling');
     expect(screen.getByLabelText('Noise weight κ (response ÷ force)')).toBeTruthy();
   });
 
@@ -106,21 +105,26 @@ describe('recipe editor', () => {
       [`GET ${lab}/scenarios/scn-frame`]: { status: 200, body: scenario },
     });
     await renderApp('/recipes/new');
+    // The lab's scenarios arrive after the screen: choose the frame once it is offered.
+    const scenarioSelect = await waitFor(() => {
+      const select = screen.getByTestId('advice-scenario') as HTMLSelectElement;
+      expect(Array.from(select.options, (o) => o.value)).toContain('scn-frame');
+      return select;
+    });
     await act(async () => {
-      fireEvent.change(screen.getByTestId('advice-scenario'), { target: { value: 'scn-frame' } });
+      fireEvent.change(scenarioSelect, { target: { value: 'scn-frame' } });
     });
     await press('button', 'Advise');
-    await settle(10);
-    const advice = within(screen.getByTestId('advice-figures'));
+    const advice = within(await screen.findByTestId('advice-figures'));
     // Narrowest mode: 46 Hz at ζ = 0.55 %, B_r = 2ζf_n = 0.506 Hz.
-    expect(advice.getByText('46.00 Hz, B_r 0.506 Hz')).toBeTruthy();
+    expect(await advice.findByText('46.00 Hz, B_r 0.506 Hz')).toBeTruthy();
     const df = Number(advice.getByText('Line spacing Δf').parentElement!.textContent!.replace('Line spacing Δf', '').replace(' Hz', ''));
     expect(df).toBeLessThanOrEqual((2 * 0.0055 * 46) / 4);
     // fs/N = Δf with N a power of two.
     const n = 512 / df;
     expect(Math.log2(n) % 1).toBe(0);
     await press('button', 'Use these settings');
-    expect((screen.getByLabelText('Block length N (samples)') as HTMLInputElement).value).toBe(String(n));
+    await waitFor(() => expect((screen.getByLabelText('Block length N (samples)') as HTMLInputElement).value).toBe(String(n)));
   });
 
   test('the history shows what changed between two versions, field by field', async () => {
@@ -135,18 +139,19 @@ describe('recipe editor', () => {
       [`GET ${lab}/recipes/rcp-survey/versions/2`]: { status: 200, body: v2 },
     });
     await renderApp('/recipes/rcp-survey');
-    const rows = within(screen.getByTestId('change-table')).getAllByRole('row').slice(1).map((r) => r.textContent);
-    expect(rows).toEqual(['windowChangedhannflattop', 'tolerances.magnitudeDbChanged10.5']);
+    const rows = () => within(screen.getByTestId('change-table')).getAllByRole('row').slice(1).map((r) => r.textContent);
+    await waitFor(() => expect(rows()).toEqual(['windowChangedhannflattop', 'tolerances.magnitudeDbChanged10.5']));
+    // The editor holds v2 (flat-top) before anything is typed.
+    await waitFor(() => expect(screen.getByRole('radio', { name: 'Flat-top' }).getAttribute('aria-checked')).toBe('true'));
     // With unsaved changes in the editor, loading an older version asks first.
     await typeInto('Overlap', '0.75');
     await press('button', 'Load v1 into the editor');
-    const dialog = within(screen.getByRole('dialog', { name: 'Replace your changes with v1?' }));
+    const dialog = within(await screen.findByRole('dialog', { name: 'Replace your changes with v1?' }));
     expect(screen.getByRole('radio', { name: 'Flat-top' }).getAttribute('aria-checked')).toBe('true');
     await act(async () => {
       fireEvent.click(dialog.getByRole('button', { name: 'Load v1' }));
     });
-    await settle();
-    expect(screen.getByRole('radio', { name: 'Hann' }).getAttribute('aria-checked')).toBe('true');
+    await waitFor(() => expect(screen.getByRole('radio', { name: 'Hann' }).getAttribute('aria-checked')).toBe('true'));
     expect((screen.getByLabelText('Overlap') as HTMLInputElement).value).toBe('0.5');
   });
 });

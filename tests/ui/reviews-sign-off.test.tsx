@@ -1,4 +1,4 @@
-import { screen, within } from '@testing-library/dom';
+import { screen, waitFor, within } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
 import { press, typeInto } from './support/form';
 import { decided, evidence, installEvidenceApi, lab, meAs, ok, page, session, submission } from './studies-fixtures';
@@ -20,22 +20,22 @@ describe('reviews inbox', () => {
   test('with nothing pending the inbox says so', async () => {
     const api = installEvidenceApi({ ...session(meAs('reviewer')), [`GET ${lab('/reviews')}`]: ok(page([])) });
     await renderApp('/reviews');
-    expect(screen.getByTestId('empty-state').textContent).toContain('Nothing waiting for review');
+    await waitFor(() => expect(screen.getByTestId('empty-state').textContent).toContain('Nothing waiting for review'));
     expect(api.called('GET', lab('/reviews'))[0].query.get('status')).toBe('pending');
   });
 
   test('a pending submission is listed with its scope and leads to its evidence', async () => {
     installEvidenceApi({ ...session(meAs('reviewer')), [`GET ${lab('/reviews')}`]: ok(page([submission()])), ...reviewRoutes() });
     await renderApp('/reviews');
-    const row = screen.getByRole('link', { name: 'Arm shaker, burst random v1' });
+    const row = await screen.findByRole('link', { name: 'Arm shaker, burst random v1' });
     expect(row.textContent).toContain('drone motor arm · 200–1000 Hz · ζ 0.5–1.2 %');
     expect(row.textContent).toContain('You may decide');
     await press('link', 'Arm shaker, burst random v1');
+    const studies = await screen.findByTestId('evidence-studies');
     expect(window.location.pathname).toBe('/reviews/sub-1');
-    const studies = screen.getByTestId('evidence-studies');
     expect(studies.textContent).toContain('Arm, burst random excitation (v1)');
     expect(studies.textContent).toContain('0.0267 dB');
-    expect(screen.getByTestId('coverage-checks').textContent).toContain('Covered');
+    expect((await screen.findByTestId('coverage-checks')).textContent).toContain('Covered');
   });
 });
 
@@ -44,9 +44,9 @@ describe('sign-off dialog', () => {
     const api = installEvidenceApi({ ...session(meAs('reviewer')), ...reviewRoutes() });
     await renderApp('/reviews/sub-1');
     await press('button', 'Sign off…');
-    const dialog = screen.getByRole('dialog', { name: 'Sign off this recipe version' });
+    const dialog = await screen.findByRole('dialog', { name: 'Sign off this recipe version' });
     await press('button', 'Sign and approve');
-    expect(within(dialog).getByText('Enter your password to sign')).toBeTruthy();
+    expect(await within(dialog).findByText('Enter your password to sign')).toBeTruthy();
     expect(within(dialog).getByText('State what the signature means (at least 10 characters)')).toBeTruthy();
     expect(api.called('POST', lab('/reviews/sub-1/decision'))).toHaveLength(0);
   });
@@ -64,9 +64,11 @@ describe('sign-off dialog', () => {
     await typeInto('What your signature means', '  Approved as the lab standard for the arm ');
     await typeInto('Your password', 'e2e-demo-password-2026');
     await press('button', 'Sign and approve');
+    await waitFor(() => expect(screen.getByTestId('decision-record').textContent).toContain(`signature sha256 ${'b'.repeat(64)}`));
+    expect(screen.getByTestId('decision-record').textContent).toContain('Dana Whitcombe');
     const [call] = api.called('POST', lab('/reviews/sub-1/decision'));
     expect(call.body).toEqual({ decision: 'approved', password: 'e2e-demo-password-2026', meaning: 'Approved as the lab standard for the arm', comment: '', reviewMonths: 12 });
-    expect(screen.queryByRole('dialog')).toBeNull();
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
     const record = screen.getByTestId('decision-record');
     expect(record.textContent).toContain('Dana Whitcombe');
     expect(record.textContent).toContain('reviewer@harborridge.test');
@@ -84,8 +86,8 @@ describe('sign-off dialog', () => {
     await typeInto('What your signature means', 'Approved as the lab standard for the arm');
     await typeInto('Your password', 'not the password');
     await press('button', 'Sign and approve');
+    expect((await screen.findByTestId('dialog-error')).textContent).toBe('The password is not right; nothing was signed.');
     expect(screen.getByRole('dialog', { name: 'Sign off this recipe version' })).toBeTruthy();
-    expect(screen.getByTestId('dialog-error').textContent).toBe('The password is not right; nothing was signed.');
   });
 
   test('returning needs a reason of at least 10 characters and sends no password', async () => {
@@ -94,10 +96,11 @@ describe('sign-off dialog', () => {
     await press('button', 'Return…');
     await typeInto('Reason for returning it', 'short');
     await press('button', 'Return with this reason');
-    expect(screen.getByText('Give the reason for returning it (at least 10 characters)')).toBeTruthy();
+    expect(await screen.findByText('Give the reason for returning it (at least 10 characters)')).toBeTruthy();
     expect(api.called('POST', lab('/reviews/sub-1/decision'))).toHaveLength(0);
     await typeInto('Reason for returning it', 'Add a scenario with noise on the force channel.');
     await press('button', 'Return with this reason');
+    await waitFor(() => expect(api.called('POST', lab('/reviews/sub-1/decision'))).toHaveLength(1));
     expect(api.called('POST', lab('/reviews/sub-1/decision'))[0].body).toEqual({ decision: 'returned', reason: 'Add a scenario with noise on the force channel.', comment: '' });
   });
 
@@ -105,6 +108,7 @@ describe('sign-off dialog', () => {
     const why = 'You started the evidence study "Arm burst check": a reviewer who produced none of the evidence must decide it.';
     installEvidenceApi({ ...session(meAs('reviewer')), ...reviewRoutes(submission({ blockedForYou: [why] })) });
     await renderApp('/reviews/sub-1');
+    expect(await screen.findByText('You ran one of the evidence studies.')).toBeTruthy();
     expect(screen.queryByRole('button', { name: 'Sign off…' })).toBeNull();
     expect(screen.getByText('Dana Whitcombe (reviewer@harborridge.test) may not decide this one')).toBeTruthy();
     expect(screen.getByTestId('blocked-reasons').textContent).toBe(why);
@@ -114,7 +118,7 @@ describe('sign-off dialog', () => {
   test('an analyst reads the evidence but gets no decision buttons', async () => {
     installEvidenceApi({ ...session(meAs('analyst')), ...reviewRoutes() });
     await renderApp('/reviews/sub-1');
-    expect(screen.getByTestId('evidence-studies')).toBeTruthy();
+    expect(await screen.findByTestId('evidence-studies')).toBeTruthy();
     expect(screen.queryByRole('button', { name: 'Sign off…' })).toBeNull();
   });
 });

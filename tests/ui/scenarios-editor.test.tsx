@@ -3,17 +3,14 @@
  * rules as the server applies them), error sources switched on and saved, the signals simulated in
  * the browser, the system copied from the lab's list, and the CSV export links.
  */
-import { fireEvent, screen, within } from '@testing-library/dom';
+import { fireEvent, screen, waitFor, within } from '@testing-library/dom';
 import { act } from 'react';
 import { renderApp, setWindowWidth } from './support/app';
-import { waitMs } from './support/dom';
 import { demoMe, installFakeApi, signedInAs } from './support/fake-api';
 import { press, typeInto } from './support/form';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
 jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
-// Whole screens with the engine at work in jsdom; the machine is shared, so allow for a slow run.
-jest.setTimeout(30_000);
 
 const lab = '/api/v1/labs/lab-harbor-ridge';
 const page = (kind: string, limit = 20) => `${lab}/${kind}?limit=${limit}&offset=0&sort=updatedAt&order=desc`;
@@ -34,17 +31,23 @@ const armSystem = { kind: 'sdof', quantity: 'accelerance', naturalFrequencyHz: 3
 
 beforeEach(() => setWindowWidth(390));
 
-async function click(role: string, name: string) {
-  await act(async () => {
-    fireEvent.click(screen.getByRole(role, { name }));
-  });
+/** Turns a chip or switch on and waits until it shows as on. */
+async function click(role: 'radio' | 'switch', name: string) {
+  await press(role, name);
+  await waitFor(() => expect(screen.getByRole(role, { name }).getAttribute('aria-checked')).toBe('true'));
+}
+
+/** Turns a switch off and waits until it shows as off. */
+async function switchOff(name: string) {
+  await press('switch', name);
+  await waitFor(() => expect(screen.getByRole('switch', { name }).getAttribute('aria-checked')).toBe('false'));
 }
 
 describe('scenario list', () => {
   test('an empty lab explains what a scenario will show', async () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe), [`GET ${page('scenarios')}`]: none });
     await renderApp('/scenarios');
-    expect(screen.getByTestId('empty-state').textContent).toContain('No scenarios yet');
+    expect((await screen.findByTestId('empty-state')).textContent).toContain('No scenarios yet');
   });
 });
 
@@ -54,13 +57,13 @@ describe('scenario editor', () => {
     await renderApp('/scenarios/new');
     await typeInto('Band to (Hz)', '300'); // fs = 512 Hz, so fs/2 = 256 Hz
     await press('button', 'Save scenario');
-    expect(screen.getByText('Required')).toBeTruthy();
+    expect(await screen.findByText('Required')).toBeTruthy();
     expect(api.calls.filter((c) => c.method === 'POST')).toHaveLength(0);
 
     await typeInto('Name', 'Frame, too wide a band');
     await press('button', 'Save scenario');
     // The engine's rule, as the server's checkedByEngine applies it after the schema.
-    expect(screen.getByText('must be below fs/2 = 256 Hz')).toBeTruthy();
+    expect(await screen.findByText('must be below fs/2 = 256 Hz')).toBeTruthy();
     expect(screen.getByLabelText('Band to (Hz)').getAttribute('aria-invalid')).toBe('true');
     expect(api.calls.filter((c) => c.method === 'POST')).toHaveLength(0);
   });
@@ -69,23 +72,22 @@ describe('scenario editor', () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe), [`GET ${page('systems', 100)}`]: none });
     await renderApp('/scenarios/new');
     await click('radio', 'Impact');
-    expect(screen.getByLabelText('Half-sine pulse duration (s)')).toBeTruthy();
+    expect(await screen.findByLabelText('Half-sine pulse duration (s)')).toBeTruthy();
     expect(screen.queryByLabelText('Band to (Hz)')).toBeNull();
     expect(screen.getByRole('radio', { name: 'Peak force' }).getAttribute('aria-checked')).toBe('true');
     await click('radio', 'Random');
-    expect(screen.getByLabelText('Band to (Hz)')).toBeTruthy();
+    expect(await screen.findByLabelText('Band to (Hz)')).toBeTruthy();
   });
 
   test('the preview simulates seed 1 in the browser and shows force and response with units', async () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe), [`GET ${page('systems', 100)}`]: none });
     await renderApp('/scenarios/new');
-    await waitMs(600);
-    const signals = screen.getByTestId('scenario-signals');
     // 64 s at 512 Hz: 32768 samples, of which the first 2048 are drawn.
-    expect(signals.textContent).toContain('The first 2048 of 32768 samples at 512 Hz');
+    await waitFor(() => expect(screen.getByTestId('scenario-signals').textContent).toContain('The first 2048 of 32768 samples at 512 Hz'));
     await act(async () => {
-      fireEvent.keyDown(screen.getByTestId('scenario-signals-force'), { key: 'Home' });
+      fireEvent.keyDown(await screen.findByTestId('scenario-signals-force'), { key: 'Home' });
     });
+    await waitFor(() => expect(screen.getByTestId('scenario-signals-readout').textContent).toContain('0 s'));
     const readout = screen.getByTestId('scenario-signals-readout').textContent ?? '';
     expect(readout).toContain('0 s');
     expect(readout).toMatch(/Force.* N/);
@@ -109,17 +111,17 @@ describe('scenario editor', () => {
     });
     await renderApp('/scenarios/new');
     await typeInto('Name', 'Frame, force noise');
-    await click('switch', 'Noise on the response channel');
+    await switchOff('Noise on the response channel');
     await click('switch', 'Noise on the force channel');
     await typeInto('Signal-to-noise ratio (dB)', '15');
     await click('switch', 'Delay between the channels');
     await press('button', 'Save scenario');
+    await waitFor(() => expect(window.location.pathname).toBe('/scenarios/scn-new'));
     const post = api.calls.find((c) => c.method === 'POST');
     const body = post?.body as { definition: { errors: Record<string, unknown>; name: string } };
     expect(body.definition.name).toBe('Frame, force noise');
     expect(body.definition.errors).toEqual({ inputNoise: { snrDb: 15 }, delayS: 0.0005 });
-    expect(window.location.pathname).toBe('/scenarios/scn-new');
-  }, 20_000);
+  });
 
   test("a saved scenario copies one of the lab's systems and links its CSV exports", async () => {
     const definition = {
@@ -139,18 +141,25 @@ describe('scenario editor', () => {
       [`GET ${lab}/scenarios/scn-arm/versions`]: { status: 200, body: { items: [record.version] } },
     });
     await renderApp('/scenarios/scn-arm');
-    expect(screen.getByTestId('scenario-system-summary').textContent).toBe('Modal · receptance m/N · mode at 36.00 Hz');
+    const summary = () => screen.getByTestId('scenario-system-summary').textContent;
+    await waitFor(() => expect(summary()).toBe('Modal · receptance m/N · mode at 36.00 Hz'));
+    // The lab's systems arrive after the editor: choose the arm once it is offered.
+    const systemSelect = await waitFor(() => {
+      const select = screen.getByTestId('system-select') as HTMLSelectElement;
+      expect(Array.from(select.options, (o) => o.value)).toContain('sys-arm');
+      return select;
+    });
     await act(async () => {
-      fireEvent.change(screen.getByTestId('system-select'), { target: { value: 'sys-arm' } });
+      fireEvent.change(systemSelect, { target: { value: 'sys-arm' } });
     });
     await press('button', 'Use this system');
-    expect(screen.getByTestId('scenario-system-summary').textContent).toBe('Single mass · accelerance m/(N·s²) · mode at 340.0 Hz');
-    expect(screen.getByText('✓ Copied from Drone motor arm, version 3')).toBeTruthy();
+    expect(await screen.findByText('✓ Copied from Drone motor arm, version 3')).toBeTruthy();
+    await waitFor(() => expect(summary()).toBe('Single mass · accelerance m/(N·s²) · mode at 340.0 Hz'));
 
-    const exportPanel = within(screen.getByTestId('scenario-export'));
-    expect(exportPanel.getByTestId('signals-csv').getAttribute('href')).toBe(`${lab}/scenarios/scn-arm/signals.csv?seed=1&version=2`);
+    const exportLink = (testId: string) => within(screen.getByTestId('scenario-export')).getByTestId(testId).getAttribute('href');
+    expect(exportLink('signals-csv')).toBe(`${lab}/scenarios/scn-arm/signals.csv?seed=1&version=2`);
     await typeInto('Seed', '17');
-    expect(exportPanel.getByTestId('signals-csv').getAttribute('href')).toBe(`${lab}/scenarios/scn-arm/signals.csv?seed=17&version=2`);
-    expect(exportPanel.getByTestId('exact-csv').getAttribute('href')).toBe(`${lab}/scenarios/scn-arm/exact.csv?version=2`);
-  }, 20_000);
+    await waitFor(() => expect(exportLink('signals-csv')).toBe(`${lab}/scenarios/scn-arm/signals.csv?seed=17&version=2`));
+    expect(exportLink('exact-csv')).toBe(`${lab}/scenarios/scn-arm/exact.csv?version=2`);
+  });
 });

@@ -1,6 +1,5 @@
-import { screen } from '@testing-library/dom';
+import { screen, waitFor } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { waitMs } from './support/dom';
 import { demoMe, installFakeApi, signedInAs, signedOut } from './support/fake-api';
 import { press, typeInto } from './support/form';
 
@@ -22,11 +21,11 @@ describe('sign-in screen', () => {
   test('an empty form shows the schema errors under both fields and sends nothing', async () => {
     const api = installFakeApi({ 'GET /api/v1/auth/session': signedOut });
     await renderApp('/sign-in');
-    expect(screen.getByTestId('screen-title').textContent).toBe('Plumbline');
+    expect((await screen.findByTestId('screen-title')).textContent).toBe('Plumbline');
 
     await press('button', 'Sign in');
 
-    expect(screen.getByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
+    expect(await screen.findByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
     expect(screen.getByText('Enter your password')).toBeTruthy();
     expect(screen.getByLabelText('E-mail').getAttribute('aria-invalid')).toBe('true');
     expect(signInCalls(api.calls)).toHaveLength(0);
@@ -40,7 +39,7 @@ describe('sign-in screen', () => {
 
     await press('button', 'Sign in');
 
-    expect(screen.getByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
+    expect(await screen.findByText('Enter an e-mail address such as name@example.test')).toBeTruthy();
     expect(screen.queryByText('Enter your password')).toBeNull();
     expect(signInCalls(api.calls)).toHaveLength(0);
   });
@@ -53,7 +52,7 @@ describe('sign-in screen', () => {
 
     await press('button', 'Sign in');
 
-    expect(screen.getByTestId('sign-in-error').textContent).toContain('E-mail or password is not right');
+    expect((await screen.findByTestId('sign-in-error')).textContent).toContain('E-mail or password is not right');
     expect(signInCalls(api.calls)).toHaveLength(1);
     expect(screen.queryByRole('tablist')).toBeNull();
   });
@@ -66,7 +65,7 @@ describe('sign-in screen', () => {
 
     await press('button', 'Sign in');
 
-    expect(screen.getByTestId('sign-in-error').textContent).toContain('E-mail or password is not right');
+    expect((await screen.findByTestId('sign-in-error')).textContent).toContain('E-mail or password is not right');
   });
 
   test('a good sign-in sends the normalised address with cookies and opens the shell', async () => {
@@ -80,28 +79,28 @@ describe('sign-in screen', () => {
 
     await press('button', 'Sign in');
 
+    expect((await screen.findByTestId('header-lab')).textContent).toBe('Harbor Ridge Test Lab');
     const [call] = signInCalls(api.calls);
     expect(call).toMatchObject({
       body: { email: 'mira.okafor@example.test', password: 'the password' },
       credentials: 'include',
     });
-    expect(screen.getByTestId('header-lab').textContent).toBe('Harbor Ridge Test Lab');
     expect(screen.getByTestId('header-user').textContent).toContain('Mira Okafor');
-    expect(screen.getByTestId('screen-title').textContent).toBe('Bench');
+    await waitFor(() => expect(screen.getByTestId('screen-title').textContent).toBe('Bench'));
     expect(window.location.pathname).toBe('/');
   });
 
   test('a signed-out visit to an area goes to sign-in and returns there afterwards', async () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedOut, 'POST /api/v1/auth/sign-in': { status: 200, body: demoMe } });
     await renderApp('/studies');
-    expect(window.location.pathname + window.location.search).toBe('/sign-in?next=%2Fstudies');
+    await waitFor(() => expect(window.location.pathname + window.location.search).toBe('/sign-in?next=%2Fstudies'));
 
     await typeInto('E-mail', 'mira.okafor@example.test');
     await typeInto('Password', 'the password');
     await press('button', 'Sign in');
 
+    await waitFor(() => expect(screen.getByTestId('screen-title').textContent).toBe('Studies'));
     expect(window.location.pathname).toBe('/studies');
-    expect(screen.getByTestId('screen-title').textContent).toBe('Studies');
   });
 
   test('when the server cannot be reached the sign-in screen says so', async () => {
@@ -111,13 +110,12 @@ describe('sign-in screen', () => {
     }) as unknown as typeof fetch;
     await renderApp('/');
     // useMe retries once, a second later, before it reports the failure.
-    await waitMs(2500);
-    expect(screen.getByTestId('server-notice').textContent).toContain("Plumbline's server could not be reached");
-    expect(screen.getByLabelText('E-mail')).toBeTruthy();
+    expect((await screen.findByTestId('server-notice')).textContent).toContain("Plumbline's server could not be reached");
+    expect(await screen.findByLabelText('E-mail')).toBeTruthy();
 
     // The server is back and the browser still holds a session: "Try again" opens the shell.
     installFakeApi({ 'GET /api/v1/auth/session': signedInAs(demoMe) });
     await press('button', 'Try again');
-    expect(screen.getByTestId('screen-title').textContent).toBe('Bench');
+    await waitFor(() => expect(screen.getByTestId('screen-title').textContent).toBe('Bench'));
   });
 });

@@ -1,8 +1,6 @@
-import { fireEvent, screen } from '@testing-library/dom';
-import { act } from 'react';
+import { screen, waitFor } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
-import { press, typeInto } from './support/form';
+import { choose, press, typeInto } from './support/form';
 import { installEvidenceApi, lab, meAs, ok, page, session, standard } from './studies-fixtures';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
@@ -17,7 +15,7 @@ describe('standards register', () => {
   test('an empty register says what will appear there', async () => {
     installEvidenceApi({ ...session(meAs('auditor')), [`GET ${lab('/standards')}`]: ok(page([])) });
     await renderApp('/standards');
-    expect(screen.getByTestId('empty-state').textContent).toContain('No approved standards yet');
+    await waitFor(() => expect(screen.getByTestId('empty-state').textContent).toContain('No approved standards yet'));
   });
 
   test('the scope filters go to the server as its query, and an empty answer says no standard covers it', async () => {
@@ -26,28 +24,26 @@ describe('standards register', () => {
       [`GET ${lab('/standards')}`]: ({ url }) => ok(page(url.includes('structureType') ? [] : [standard()])),
     });
     await renderApp('/standards');
-    expect(screen.getByTestId('standard-list').textContent).toContain('drone motor arm · 200–1000 Hz · ζ 0.5–1.2 %');
+    expect((await screen.findByTestId('standard-list')).textContent).toContain('drone motor arm · 200–1000 Hz · ζ 0.5–1.2 %');
     await typeInto('Structure type', 'frame');
     await typeInto('Band from (Hz)', '20');
     await typeInto('to (Hz)', '120');
     await typeInto('Damping of the structure (% of critical)', '0.8');
-    await act(async () => {
-      fireEvent.change(screen.getByLabelText('Excitation'), { target: { value: 'random' } });
-    });
-    await settle();
+    await choose('Excitation', 'random');
     await press('button', 'Apply filters');
+    await waitFor(() => expect(screen.getByTestId('empty-state').textContent).toContain('No standard covers this'));
     const last = api.called('GET', lab('/standards')).at(-1)!;
     expect(Object.fromEntries(last.query)).toEqual({ structureType: 'frame', lowHz: '20', highHz: '120', dampingPercent: '0.8', excitation: 'random', status: 'active', limit: '50' });
-    expect(screen.getByTestId('empty-state').textContent).toContain('No standard covers this');
   });
 
   test('a band that is not a number is refused before any query', async () => {
     const api = installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/standards')}`]: ok(page([standard()])) });
     await renderApp('/standards');
+    await screen.findByTestId('standard-list');
     const before = api.called('GET', lab('/standards')).length;
     await typeInto('Band from (Hz)', 'twenty');
     await press('button', 'Apply filters');
-    expect(screen.getByText('Enter a number')).toBeTruthy();
+    expect(await screen.findByText('Enter a number')).toBeTruthy();
     expect(api.called('GET', lab('/standards'))).toHaveLength(before);
   });
 
@@ -58,20 +54,21 @@ describe('standards register', () => {
       [`POST ${lab('/standards/std-1/retire')}`]: ok(standard({ status: 'retired', ended: { at: 1, by: null, reason: 'Replaced by the impact standard.' } })),
     });
     await renderApp('/standards/std-1');
-    const detail = screen.getByTestId('standard-detail');
+    const detail = await screen.findByTestId('standard-detail');
     expect(detail.textContent).toContain('Meaning: Approved as the lab standard for the arm');
     expect(screen.getByTestId('standard-report').getAttribute('href')).toBe('/reports/standard/std-1');
     await press('button', 'Retire this standard…');
-    expect(screen.getByRole('dialog', { name: 'Retire this standard?' })).toBeTruthy();
+    expect(await screen.findByRole('dialog', { name: 'Retire this standard?' })).toBeTruthy();
     await typeInto('Reason', 'Replaced by the impact standard.');
     await press('button', 'Retire it');
+    await waitFor(() => expect(api.called('POST', lab('/standards/std-1/retire'))).toHaveLength(1));
     expect(api.called('POST', lab('/standards/std-1/retire'))[0].body).toEqual({ reason: 'Replaced by the impact standard.' });
   });
 
   test('an auditor gets no retire button', async () => {
     installEvidenceApi({ ...session(meAs('auditor')), [`GET ${lab('/standards/std-1')}`]: ok(standard()) });
     await renderApp('/standards/std-1');
-    expect(screen.getByTestId('standard-detail')).toBeTruthy();
+    expect(await screen.findByTestId('standard-detail')).toBeTruthy();
     expect(screen.queryByRole('button', { name: 'Retire this standard…' })).toBeNull();
   });
 });

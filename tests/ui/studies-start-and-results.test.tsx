@@ -1,8 +1,6 @@
-import { fireEvent, screen, within } from '@testing-library/dom';
-import { act } from 'react';
+import { screen, waitFor, within } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle, waitMs } from './support/dom';
-import { press, typeInto } from './support/form';
+import { choose, press, typeInto } from './support/form';
 import { installEvidenceApi, lab, meAs, ok, page, results, runningStudy, session, study } from './studies-fixtures';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
@@ -16,19 +14,14 @@ const inputs = {
   [`GET ${lab('/scenarios')}`]: ok(page([summary('sc-burst', 'Arm, burst random excitation'), summary('sc-delay', 'Arm, delay between the channels')])),
 };
 
-// Two tests wait real time (retries, polling); the default 5 s is tight when the project runs at once.
-jest.setTimeout(20_000);
-
 beforeEach(() => {
   localStorage.clear();
   setWindowWidth(390);
 });
 
-async function choose(label: string, value: string) {
-  await act(async () => {
-    fireEvent.change(screen.getByLabelText(label), { target: { value } });
-  });
-  await settle();
+async function tick(name: string) {
+  await press('checkbox', name);
+  await waitFor(() => expect(screen.getByRole('checkbox', { name }).getAttribute('aria-checked')).toBe('true'));
 }
 
 describe('starting a study', () => {
@@ -36,7 +29,7 @@ describe('starting a study', () => {
     const api = installEvidenceApi({ ...session(meAs('analyst')), ...inputs });
     await renderApp('/studies/new');
     await press('button', 'Start the study');
-    expect(screen.getByText('Give a name')).toBeTruthy();
+    expect(await screen.findByText('Give a name')).toBeTruthy();
     expect(screen.getByText('Choose a recipe')).toBeTruthy();
     expect(screen.getByText('Tick at least one scenario')).toBeTruthy();
     expect(api.called('POST', lab('/studies'))).toHaveLength(0);
@@ -47,11 +40,11 @@ describe('starting a study', () => {
     await renderApp('/studies/new');
     await typeInto('Study name', 'Too big');
     await choose('Recipe', 'recipe-arm');
-    await press('checkbox' as 'button', 'Arm, burst random excitation');
-    await press('checkbox' as 'button', 'Arm, delay between the channels');
+    await tick('Arm, burst random excitation');
+    await tick('Arm, delay between the channels');
     await typeInto('Seeds per scenario', '1001');
     await press('button', 'Start the study');
-    expect(screen.getByText('Enter a whole number of seeds, 1 to 1000')).toBeTruthy();
+    expect(await screen.findByText('Enter a whole number of seeds, 1 to 1000')).toBeTruthy();
     expect(api.called('POST', lab('/studies'))).toHaveLength(0);
   });
 
@@ -66,20 +59,20 @@ describe('starting a study', () => {
     await renderApp('/studies/new');
     await typeInto('Study name', 'Arm burst check');
     await choose('Recipe', 'recipe-arm');
-    await press('checkbox' as 'button', 'Arm, delay between the channels');
-    await press('checkbox' as 'button', 'Arm, burst random excitation');
+    await tick('Arm, delay between the channels');
+    await tick('Arm, burst random excitation');
     await typeInto('Seeds per scenario', '2');
-    expect(screen.getByTestId('study-runs').textContent).toBe('4 runs of at most 5000');
+    await waitFor(() => expect(screen.getByTestId('study-runs').textContent).toBe('4 runs of at most 5000'));
     await press('button', 'Start the study');
+    await waitFor(() => expect(window.location.pathname).toBe('/studies/study-1'));
     const [call] = api.called('POST', lab('/studies'));
     expect(call.body).toEqual({ name: 'Arm burst check', recipe: { id: 'recipe-arm' }, scenarios: [{ id: 'sc-delay' }, { id: 'sc-burst' }], seeds: 2, baseSeed: 1 });
-    expect(window.location.pathname).toBe('/studies/study-1');
   });
 
   test('a reviewer is told that only analysts start studies', async () => {
     installEvidenceApi({ ...session(meAs('reviewer')), ...inputs });
     await renderApp('/studies/new');
-    expect(screen.getByTestId('role-refused').textContent).toContain('Not for your role');
+    expect((await screen.findByTestId('role-refused')).textContent).toContain('Not for your role');
   });
 });
 
@@ -87,7 +80,7 @@ describe('a study and its results', () => {
   test('the list shows its empty state when the lab has no studies', async () => {
     installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/studies')}`]: ok(page([])) });
     await renderApp('/studies');
-    expect(screen.getByTestId('empty-state').textContent).toContain('No studies run yet');
+    await waitFor(() => expect(screen.getByTestId('empty-state').textContent).toContain('No studies run yet'));
   });
 
   test('a running study’s row in the list follows the study, and the list is fetched again when it ends', async () => {
@@ -99,23 +92,23 @@ describe('a study and its results', () => {
     });
     await renderApp('/studies');
     const bar = () => within(screen.getByTestId('study-list')).queryByRole('progressbar');
-    expect(bar()!.getAttribute('aria-valuenow')).toBe('1');
+    await waitFor(() => expect(bar()!.getAttribute('aria-valuenow')).toBe('1'));
     detail = runningStudy(3);
-    await waitMs(1700);
-    expect(bar()!.getAttribute('aria-valuenow')).toBe('3');
+    // The row polls the study: it shows the new count when the next answer arrives.
+    await waitFor(() => expect(bar()!.getAttribute('aria-valuenow')).toBe('3'));
     const listCalls = api.called('GET', lab('/studies')).length;
     detail = study();
-    await waitMs(1700);
+    await waitFor(() => expect(screen.getByTestId('study-list').textContent).toContain('Fail'));
     expect(api.called('GET', lab('/studies')).length).toBeGreaterThan(listCalls);
     expect(bar()).toBeNull();
-    expect(screen.getByTestId('study-list').textContent).toContain('Fail');
   });
 
   test('a failing server shows an error with a way to try again', async () => {
-    installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/studies/study-1')}`]: { status: 500, body: { error: { code: 'internal', message: 'The database is busy.' } } } });
+    const api = installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/studies/study-1')}`]: { status: 500, body: { error: { code: 'internal', message: 'The database is busy.' } } } });
     await renderApp('/studies/study-1');
-    await waitMs(3600); // server errors are retried twice (1 s, then 2 s) before the screen says so
-    expect(screen.getByTestId('error-state').textContent).toContain('The database is busy.');
+    // Server errors are retried twice (1 s, then 2 s) before the screen says so.
+    await waitFor(() => expect(screen.getByTestId('error-state').textContent).toContain('The database is busy.'));
+    expect(api.called('GET', lab('/studies/study-1'))).toHaveLength(3);
     expect(screen.getByRole('button', { name: 'Try again' })).toBeTruthy();
   });
 
@@ -127,14 +120,15 @@ describe('a study and its results', () => {
       [`GET ${lab('/studies/study-1/results')}`]: ok(results),
     });
     await renderApp('/studies/study-1');
-    const bar = screen.getByRole('progressbar', { name: 'Runs done' });
+    const bar = await screen.findByRole('progressbar', { name: 'Runs done' });
     expect(bar.getAttribute('aria-valuenow')).toBe('1');
     expect(screen.getByTestId('progress-runs').textContent).toBe('1 / 4 runs · 25 %');
     expect(screen.getByTestId('progress-eta').textContent).toBe('about 1 min 15 s left');
+    expect(globalThis.EventSource).toBeUndefined();
     answer = study();
-    await waitMs(1700);
+    // The screen polls the study; once it has finished, the results replace the progress.
+    const matrix = await screen.findByTestId('results-matrix');
     expect(api.called('GET', lab('/studies/study-1')).length).toBeGreaterThanOrEqual(2);
-    const matrix = screen.getByTestId('results-matrix');
     const burst = within(matrix).getByRole('link', { name: 'Arm, burst random excitation: pass' });
     expect(burst.textContent).toContain('0.0267 dB');
     expect(burst.textContent).toContain('limit ≤ 0.500 dB');
@@ -153,13 +147,14 @@ describe('a study and its results', () => {
     });
     await renderApp('/studies/study-1');
     await press('button', 'Cancel study');
-    const dialog = screen.getByRole('dialog', { name: 'Cancel this study?' });
+    const dialog = await screen.findByRole('dialog', { name: 'Cancel this study?' });
     expect(dialog.textContent).toContain('Runs already done (2 of 4) are kept');
     await press('button', 'Keep it running');
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
     expect(api.called('POST', lab('/studies/study-1/cancel'))).toHaveLength(0);
     await press('button', 'Cancel study');
     await press('button', 'Cancel the study');
+    await waitFor(() => expect(screen.getByTestId('study-status').textContent).toBe('Cancelled'));
     expect(api.called('POST', lab('/studies/study-1/cancel'))).toHaveLength(1);
-    expect(screen.getByTestId('study-status').textContent).toBe('Cancelled');
   });
 });

@@ -1,8 +1,6 @@
-import { fireEvent, screen } from '@testing-library/dom';
-import { act } from 'react';
+import { screen, waitFor } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
-import { press } from './support/form';
+import { choose, press } from './support/form';
 import { headerColumns } from '@/shared/ui/screens/uploads/csv-header';
 import { installEvidenceApi, lab, meAs, ok, page, session } from './studies-fixtures';
 
@@ -20,20 +18,10 @@ jest.mock('expo-document-picker', () => ({
 
 const recipes = page([{ id: 'recipe-arm', labId: 'lab-harbor-ridge', name: 'Arm shaker, burst random', description: '', latestVersion: 2, createdBy: { id: 'u', displayName: 'T' }, updatedBy: { id: 'u', displayName: 'T' }, createdAt: 1, updatedAt: 1 }]);
 
-// Three renders with a file read each; slower than the default 5 s when the whole project runs at once.
-jest.setTimeout(20_000);
-
 beforeEach(() => {
   localStorage.clear();
   setWindowWidth(390);
 });
-
-async function choose(label: string, value: string) {
-  await act(async () => {
-    fireEvent.change(screen.getByLabelText(label), { target: { value } });
-  });
-  await settle();
-}
 
 test('CSV header names are split on commas, semicolons or tabs, with quoted names', () => {
   expect(headerColumns('time_s,"force, N",accel')).toEqual(['time_s', 'force, N', 'accel']);
@@ -45,18 +33,17 @@ test('time data: the picked file’s columns are offered, a recipe is required, 
   const api = installEvidenceApi({ ...session(meAs('analyst')), [`GET ${lab('/uploads')}`]: ok(page([])), [`GET ${lab('/recipes')}`]: ok(recipes), [`GET ${lab('/scenarios')}`]: ok(page([])) });
   await renderApp('/uploads');
   await press('button', 'Choose a CSV file');
-  expect(screen.getByText('hammer.csv · 3 columns')).toBeTruthy();
-  expect((screen.getByLabelText('Time column (s)') as HTMLSelectElement).value).toBe('time_s');
+  expect(await screen.findByText('hammer.csv · 3 columns')).toBeTruthy();
+  await waitFor(() => expect((screen.getByLabelText('Time column (s)') as HTMLSelectElement).value).toBe('time_s'));
   await choose('Force column (input)', 'force_N');
   await choose('Response column (output)', 'accel');
   await press('button', 'Upload and process');
-  expect(screen.getByText('Choose a recipe')).toBeTruthy();
+  expect(await screen.findByText('Choose a recipe')).toBeTruthy();
   expect(api.called('POST', lab('/uploads'))).toHaveLength(0);
 
   await choose('Recipe', 'recipe-arm');
   await press('button', 'Upload and process');
-  const [call] = api.called('POST', lab('/uploads'));
-  expect(call).toBeTruthy();
+  await waitFor(() => expect(api.called('POST', lab('/uploads'))).toHaveLength(1));
   const sent = (globalThis.fetch as jest.Mock).mock.calls.find(([url, init]) => String(url) === lab('/uploads') && init?.method === 'POST')![1].body as FormData;
   const fields = ['kind', 'recipeId', 'inputColumn', 'outputColumn', 'timeColumn', 'sampleRateHz'].map((k) => [k, sent.get(k)]);
   expect(Object.fromEntries(fields)).toEqual({ kind: 'time-data', recipeId: 'recipe-arm', inputColumn: 'force_N', outputColumn: 'accel', timeColumn: 'time_s', sampleRateHz: null });
@@ -70,7 +57,8 @@ test('an upload the server refuses shows its reason', async () => {
   });
   await renderApp('/uploads');
   await press('button', 'Choose a CSV file');
+  expect(await screen.findByText('hammer.csv · 3 columns')).toBeTruthy();
   await choose('Recipe', 'recipe-arm');
   await press('button', 'Upload and process');
-  expect(screen.getByTestId('upload-error').textContent).toBe('Line 3, column accel: "x" is not a number.');
+  expect((await screen.findByTestId('upload-error')).textContent).toBe('Line 3, column accel: "x" is not a number.');
 });

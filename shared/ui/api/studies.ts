@@ -97,15 +97,17 @@ export function useCancelStudy(labId: string) {
 export type LiveMode = 'idle' | 'stream' | 'polling';
 
 /**
- * Keeps a running study's progress fresh: an EventSource on /events writes each `progress` into
- * the study's cached detail, and `end` refetches the study, its results and the lists. Without
- * EventSource, or once the stream errs, it answers 'polling' and the caller polls (useStudy poll).
+ * One study, kept fresh while it runs: an EventSource on /events writes each `progress` into the
+ * study's cached detail, and `end` refetches the study, its results and the lists. Without
+ * EventSource, or once the stream errs, the study is polled instead (mode 'polling').
  */
-export function useStudyLive(labId: string, id: string, status: StudyStatus | undefined): LiveMode {
+export function useLiveStudy(labId: string, id: string): { study: ReturnType<typeof useStudy>; mode: LiveMode } {
   const client = useQueryClient();
   const [failed, setFailed] = useState(false);
-  const active = isActive(status);
   const canStream = typeof EventSource !== 'undefined' && !failed;
+  // Polls only while the study is active (useStudy's refetchInterval looks at its status).
+  const study = useStudy(labId, id, { poll: !canStream });
+  const active = isActive(study.data?.status);
   useEffect(() => {
     if (!active || !canStream || !labId || !id) return;
     const source = new EventSource(labPath(labId, `/studies/${encodeURIComponent(id)}/events`), { withCredentials: true });
@@ -129,8 +131,7 @@ export function useStudyLive(labId: string, id: string, status: StudyStatus | un
     };
     return () => source.close();
   }, [active, canStream, client, id, labId]);
-  if (!active) return 'idle';
-  return canStream ? 'stream' : 'polling';
+  return { study, mode: !active ? 'idle' : canStream ? 'stream' : 'polling' };
 }
 
 /** CSV exports of a study (served as attachments by the API). */

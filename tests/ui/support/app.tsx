@@ -2,7 +2,7 @@
 import { ExpoRoot } from 'expo-router';
 import { getMockContext } from 'expo-router/testing-library';
 import path from 'node:path';
-import { renderDom, settle } from './dom';
+import { renderDom } from './dom';
 
 const appDir = path.resolve(__dirname, '../../../app');
 
@@ -16,10 +16,12 @@ export function setWindowWidth(width: number) {
   module.default.mockReturnValue({ width, height: 800, scale: 1, fontScale: 1 });
 }
 
+/**
+ * Mounts the app at `url`. It returns at once: the session and the screen's data arrive later, so
+ * the test waits for what it reads (`await screen.findBy…`).
+ */
 export async function renderApp(url: string) {
   process.env.EXPO_ROUTER_IMPORT_MODE = 'sync';
   window.history.replaceState(null, '', url);
-  const result = await renderDom(<ExpoRoot context={getMockContext(appDir)} location={url} />);
-  await settle(6);
-  return result;
+  return renderDom(<ExpoRoot context={getMockContext(appDir)} location={url} />);
 }

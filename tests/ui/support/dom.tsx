@@ -3,6 +3,9 @@
  * (roles, aria-* and <input>s). @testing-library/react-native queries host components named
  * Text/View and finds nothing in react-native-web's <div>s, so the web project uses
  * @testing-library/dom on the real DOM instead.
+ *
+ * Tests never sleep: after an action they wait for what they expect to see (`findBy*`,
+ * `waitFor`), with the generous timeout set in ./setup.ts. `cleanup()` runs after every test.
  */
 import { act, type ReactElement } from 'react';
 import { createRoot, type Root } from 'react-dom/client';
@@ -22,26 +25,14 @@ export async function renderDom(ui: ReactElement) {
   return { container };
 }
 
-/** Lets pending promises, timers of 0 ms and React updates settle. */
-export async function settle(rounds = 3) {
-  for (let i = 0; i < rounds; i++) {
-    await act(async () => {
-      await new Promise((resolve) => setTimeout(resolve, 0));
-    });
-  }
-}
-
-/** Waits real time inside act, for the app's own timers (e.g. a query's retry delay). */
-export async function waitMs(ms: number) {
-  await act(async () => {
-    await new Promise((resolve) => setTimeout(resolve, ms));
-  });
-  await settle();
-}
-
-afterEach(async () => {
+/** Unmounts everything a test rendered and empties the document, even after a failure. */
+export async function cleanup() {
   for (const { root, container } of mounted.splice(0)) {
-    await act(async () => root.unmount());
-    container.remove();
+    try {
+      await act(async () => root.unmount());
+    } finally {
+      container.remove();
+    }
   }
-});
+  document.body.innerHTML = '';
+}

@@ -29,13 +29,14 @@ export function SignOffDialog({ labId, submission, decision, onClose }: Props) {
     resolver,
     defaultValues: { decision: decision ?? 'approved', password: '', meaning: '', comment: '', reason: '', reviewMonths: 12 },
   });
+  // The dialog starts clean each time it opens with a decision (the mutation's reset is stable).
+  const resetDecision = decide.reset;
   useEffect(() => {
     if (decision) {
       reset({ decision, password: '', meaning: '', comment: '', reason: '', reviewMonths: 12 });
-      decide.reset();
+      resetDecision();
     }
-    // The dialog starts clean each time it opens with a decision.
-  }, [decision, reset]);
+  }, [decision, reset, resetDecision]);
   const chosen = watch('decision');
   const approving = chosen === 'approved';
   const submit = handleSubmit((values) => {

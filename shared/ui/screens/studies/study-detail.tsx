@@ -2,7 +2,7 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { Study } from '@/shared/api/work';
-import { isActive, studyCsvLinks, useCancelStudy, useStudy, useStudyLive } from '@/shared/ui/api/studies';
+import { isActive, studyCsvLinks, useCancelStudy, useLiveStudy } from '@/shared/ui/api/studies';
 import { AppText, Button } from '@/shared/ui/components';
 import { useLabRole } from '@/shared/ui/lab-context';
 import { space } from '@/shared/ui/theme';
@@ -15,10 +15,7 @@ import { ProgressBar } from './progress-bar';
 import { StudyResultsView } from './study-results';
 
 export function StudyDetail({ labId, studyId }: { labId: string; studyId: string }) {
-  const [polling, setPolling] = useState(false);
-  const study = useStudy(labId, studyId, { poll: polling });
-  const mode = useStudyLive(labId, studyId, study.data?.status);
-  if ((mode === 'polling') !== polling && mode !== 'idle') setPolling(mode === 'polling');
+  const { study, mode } = useLiveStudy(labId, studyId);
   return (
     <QueryView query={study} loadingLabel="Loading the study…">
       {(data) => <StudyBody labId={labId} study={data} live={mode} />}

@@ -31,10 +31,13 @@ export function WhatIfScreen() {
   const list = scenariosApi.useList(labId, { limit: 100 });
   const definition = builtin ? builtin.definition : labScenario.data?.definition;
   const base = useMemo(() => (definition ? safe(() => parseScenario(definition)) : null), [definition]);
-  const [settings, setSettings] = useState<WhatIfSettings | null>(null);
-  useEffect(() => {
-    setSettings(base && base.ok ? safe(() => startingSettings(definition)).value ?? null : null);
-  }, [base, definition]);
+  const starting = useMemo(() => (base?.ok ? (safe(() => startingSettings(definition)).value ?? null) : null), [base, definition]);
+  // The user's changes belong to the scenario they were made on: another scenario starts afresh.
+  const [edited, setEdited] = useState<{ from: WhatIfSettings; settings: WhatIfSettings } | null>(null);
+  const settings = edited && edited.from === starting ? edited.settings : starting;
+  const setSettings = (next: WhatIfSettings) => {
+    if (starting) setEdited({ from: starting, settings: next });
+  };
   const { result, error, busy } = useWhatIf(definition, settings);
   const zoomBands = useMemo(() => (base?.ok ? modeBands(base.value) : []), [base]);
   const labOptions = (list.data?.items ?? []).map((s) => ({ value: s.id, label: s.name }));
@@ -97,10 +100,12 @@ function modeBands(s: ReturnType<typeof parseScenario>) {
   }));
 }
 
-/** Runs the bench after the settings change, off the event that changed them, and keeps the last result on screen. */
+/**
+ * Runs the bench after the settings change, off the event that changed them, and keeps the last
+ * result on screen. `settings` keeps its identity until the user changes something.
+ */
 function useWhatIf(definition: unknown, settings: WhatIfSettings | null) {
   const [state, setState] = useState<{ result: WhatIfResult | null; error: string | null; busy: boolean }>({ result: null, error: null, busy: false });
-  const key = settings ? JSON.stringify(settings) : '';
   useEffect(() => {
     if (!settings || !definition) return;
     setState((s) => ({ ...s, busy: true }));
@@ -113,8 +118,7 @@ function useWhatIf(definition: unknown, settings: WhatIfSettings | null) {
       }
     }, 30);
     return () => clearTimeout(timer);
-    // `key` stands for `settings`.
-  }, [definition, key]);
+  }, [definition, settings]);
   return state;
 }
 

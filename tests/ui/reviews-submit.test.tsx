@@ -1,8 +1,6 @@
-import { fireEvent, screen, within } from '@testing-library/dom';
-import { act } from 'react';
+import { screen, waitFor, within } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
-import { press, typeInto } from './support/form';
+import { choose, press, typeInto } from './support/form';
 import { installEvidenceApi, lab, meAs, ok, page, session, study, submission } from './studies-fixtures';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
@@ -28,18 +26,9 @@ const baseRoutes = () => ({
   [`GET ${lab('/studies')}`]: ok({ items: studiesList, total: studiesList.length, limit: 200, offset: 0 }),
 });
 
-async function choose(label: string, value: string) {
-  await act(async () => {
-    fireEvent.change(screen.getByLabelText(label), { target: { value } });
-  });
-  await settle();
-}
-
 async function check(name: string) {
-  await act(async () => {
-    fireEvent.click(screen.getByRole('checkbox', { name }));
-  });
-  await settle();
+  await press('checkbox', name);
+  await waitFor(() => expect(screen.getByRole('checkbox', { name }).getAttribute('aria-checked')).toBe('true'));
 }
 
 async function fillScope() {
@@ -56,14 +45,14 @@ describe('submit a recipe for review', () => {
     installEvidenceApi(baseRoutes());
     await renderApp('/reviews');
     await press('link', 'Submit a recipe for review');
+    await waitFor(() => expect(screen.getByTestId('screen-title').textContent).toBe('Submit a recipe for review'));
     expect(window.location.pathname).toBe('/reviews/submit');
-    expect(screen.getByTestId('screen-title').textContent).toBe('Submit a recipe for review');
   });
 
   test('a reviewer has no link in the inbox', async () => {
     installEvidenceApi({ ...baseRoutes(), ...session(meAs('reviewer')) });
     await renderApp('/reviews');
-    expect(screen.getByTestId('screen-title')).toBeTruthy();
+    expect(await screen.findByTestId('screen-title')).toBeTruthy();
     expect(screen.queryByRole('link', { name: 'Submit a recipe for review' })).toBeNull();
   });
 
@@ -71,7 +60,7 @@ describe('submit a recipe for review', () => {
     const api = installEvidenceApi(baseRoutes());
     await renderApp('/reviews/submit');
     await press('button', 'Submit for review');
-    expect(screen.getByText('Choose the recipe')).toBeTruthy();
+    expect(await screen.findByText('Choose the recipe')).toBeTruthy();
     expect(screen.getByText('Give at least one finished study as evidence')).toBeTruthy();
     expect(screen.getByText('Name the structure type')).toBeTruthy();
     expect(api.called('POST', lab('/reviews'))).toHaveLength(0);
@@ -87,18 +76,19 @@ describe('submit a recipe for review', () => {
     await renderApp('/reviews/submit');
     await choose('Recipe', 'recipe-arm');
     await choose('Version', '1');
-    const offered = within(screen.getByTestId('submit-studies')).getAllByRole('checkbox').map((box) => box.getAttribute('aria-label'));
-    expect(offered).toEqual(['Arm burst check', 'Arm delay check']);
+    const offered = () => within(screen.getByTestId('submit-studies')).getAllByRole('checkbox').map((box) => box.getAttribute('aria-label'));
+    await waitFor(() => expect(offered()).toEqual(['Arm burst check', 'Arm delay check']));
 
     await check('Arm burst check');
     await check('Arm delay check');
     await fillScope();
     await press('button', 'Submit for review');
-    expect(screen.getByText('A criterion of the evidence failed: say why the recipe is fit nonetheless (at least 20 characters)')).toBeTruthy();
+    expect(await screen.findByText('A criterion of the evidence failed: say why the recipe is fit nonetheless (at least 20 characters)')).toBeTruthy();
     expect(api.called('POST', lab('/reviews'))).toHaveLength(0);
 
     await typeInto('Why the recipe is fit although a criterion failed', 'The delay scenario is outside the programme: cables are compensated.');
     await press('button', 'Submit for review');
+    await waitFor(() => expect(window.location.pathname).toBe('/reviews/sub-1'));
     const [call] = api.called('POST', lab('/reviews'));
     expect(call.body).toEqual({
       recipe: { id: 'recipe-arm', version: 1 },
@@ -107,7 +97,6 @@ describe('submit a recipe for review', () => {
       purpose: '',
       justification: 'The delay scenario is outside the programme: cables are compensated.',
     });
-    expect(window.location.pathname).toBe('/reviews/sub-1');
   });
 
   test("the server's refusal is shown in its words and the form stays", async () => {
@@ -121,7 +110,7 @@ describe('submit a recipe for review', () => {
     await check('Arm burst check');
     await fillScope();
     await press('button', 'Submit for review');
-    const refusal = screen.getByTestId('submit-refusal');
+    const refusal = await screen.findByTestId('submit-refusal');
     expect(refusal.getAttribute('role')).toBe('alert');
     expect(refusal.textContent).toContain('The evidence does not cover the declared scope: no scenario reaches 1000 Hz.');
     expect(window.location.pathname).toBe('/reviews/submit');
@@ -136,7 +125,7 @@ describe('submit a recipe for review', () => {
     await fillScope();
     await typeInto('Band from (Hz)', '2000');
     await press('button', 'Submit for review');
-    expect(screen.getByText('lowHz must be below highHz')).toBeTruthy();
+    expect(await screen.findByText('lowHz must be below highHz')).toBeTruthy();
     expect(api.called('POST', lab('/reviews'))).toHaveLength(0);
   });
 });

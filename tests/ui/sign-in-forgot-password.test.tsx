@@ -1,4 +1,4 @@
-import { screen } from '@testing-library/dom';
+import { screen, waitFor } from '@testing-library/dom';
 import { renderApp, setWindowWidth } from './support/app';
 import { installFakeApi, signedOut } from './support/fake-api';
 import { press } from './support/form';
@@ -12,13 +12,13 @@ describe('sign-in: forgotten password', () => {
   test('the sign-in card links to the reset request form', async () => {
     installFakeApi({ 'GET /api/v1/auth/session': signedOut });
     await renderApp('/sign-in');
-    const link = screen.getByRole('link', { name: 'Forgot your password?' });
+    const link = await screen.findByRole('link', { name: 'Forgot your password?' });
     expect(link.getAttribute('href')).toBe('/reset-password');
 
     await press('link', 'Forgot your password?');
 
-    expect(window.location.pathname).toBe('/reset-password');
-    expect(screen.getByTestId('reset-request-form')).toBeTruthy();
+    expect(await screen.findByTestId('reset-request-form')).toBeTruthy();
+    await waitFor(() => expect(window.location.pathname).toBe('/reset-password'));
     expect(screen.getByRole('button', { name: 'Send the reset link' })).toBeTruthy();
   });
 });

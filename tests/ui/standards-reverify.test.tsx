@@ -1,7 +1,6 @@
-import { screen, within } from '@testing-library/dom';
+import { screen, waitFor, within } from '@testing-library/dom';
 import { reverifySchema } from '@/shared/api/approval';
 import { renderApp, setWindowWidth } from './support/app';
-import { settle } from './support/dom';
 import { press } from './support/form';
 import { installEvidenceApi, lab, meAs, ok, session, standard } from './studies-fixtures';
 
@@ -46,21 +45,20 @@ describe("re-verification on today's engine", () => {
     await renderApp('/standards/std-1');
 
     await press('button', "Re-run on today's engine…");
-    const dialog = screen.getByRole('dialog', { name: "Re-run this standard's evidence?" });
+    const dialog = await screen.findByRole('dialog', { name: "Re-run this standard's evidence?" });
     expect(dialog.textContent).toContain('can take a while');
     expect(api.called('POST', REVERIFY)).toHaveLength(0);
 
     await press('button', 'Re-run it');
+    expect((await screen.findByTestId('reverify-progress')).textContent).toContain('Re-running every study');
     expect(screen.queryByRole('dialog')).toBeNull();
-    expect(screen.getByTestId('reverify-progress').textContent).toContain('Re-running every study');
     expect(screen.getByRole('button', { name: "Re-run on today's engine…" }).getAttribute('aria-disabled')).toBe('true');
 
     release();
-    await settle(6);
+    const words = (await screen.findByTestId('reverify-outcome')).textContent;
     expect(api.called('POST', REVERIFY)).toHaveLength(1);
-    expect(screen.queryByTestId('reverify-progress')).toBeNull();
+    await waitFor(() => expect(screen.queryByTestId('reverify-progress')).toBeNull());
     expect(screen.getByRole('button', { name: "Re-run on today's engine…" }).getAttribute('aria-disabled')).not.toBe('true');
-    const words = screen.getByTestId('reverify-outcome').textContent;
     expect(words).toContain('Identical: every stored number came back bit for bit over 8 runs on engine 1.1.0 (evidence made on 1.0.0).');
   });
 
@@ -76,7 +74,7 @@ describe("re-verification on today's engine", () => {
     await renderApp('/standards/std-1');
     await press('button', "Re-run on today's engine…");
     await press('button', 'Re-run it');
-    const words = screen.getByTestId('reverify-outcome').textContent;
+    const words = (await screen.findByTestId('reverify-outcome')).textContent;
     expect(words).toContain('Within 1.00e-12: no number moved by more than 1.00e-12 relative');
     expect(words).toContain('Largest change: coherence in Arm, burst random excitation at 412.5 Hz');
     expect(words).toContain('difference 3.00e-15');
@@ -98,7 +96,7 @@ describe("re-verification on today's engine", () => {
     await renderApp('/standards/std-1');
     await press('button', "Re-run on today's engine…");
     await press('button', 'Re-run it');
-    const panel = screen.getByTestId('reverify-outcome');
+    const panel = await screen.findByTestId('reverify-outcome');
     expect(panel.textContent).toContain('Changed: 1 of 2 compared lines differ by more than 1.00e-12');
     expect(within(panel).getByText(/Largest change: magnitude error \(dB\) in Arm, burst random excitation at 640 Hz, stored 0.026700, now 0.030100 \(difference 0.00340\)/)).toBeTruthy();
   });
@@ -112,13 +110,13 @@ describe("re-verification on today's engine", () => {
     await renderApp('/standards/std-1');
     await press('button', "Re-run on today's engine…");
     await press('button', 'Re-run it');
-    expect(screen.getByTestId('reverify-error').textContent).toContain('A study of the evidence has no stored results to compare.');
+    expect((await screen.findByTestId('reverify-error')).textContent).toContain('A study of the evidence has no stored results to compare.');
   });
 
   test.each(['reviewer', 'auditor'] as const)('signed in as %s, there is no re-run action', async (role) => {
     installEvidenceApi({ ...session(meAs(role)), [`GET ${lab('/standards/std-1')}`]: ok(standard()) });
     await renderApp('/standards/std-1');
-    expect(screen.getByTestId('standard-detail')).toBeTruthy();
+    expect(await screen.findByTestId('standard-detail')).toBeTruthy();
     expect(screen.queryByRole('button', { name: "Re-run on today's engine…" })).toBeNull();
   });
 });
