@@ -3,4 +3,4 @@
  * engine produced a figure. Bump the minor version when any result may move, the major version
  * when a stored result can no longer be read.
  */
-export const ENGINE_VERSION = '1.0.0';
+export const ENGINE_VERSION = '1.1.0';

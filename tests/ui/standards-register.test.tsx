@@ -56,6 +56,10 @@ describe('standards register', () => {
     await renderApp('/standards/std-1');
     const detail = await screen.findByTestId('standard-detail');
     expect(detail.textContent).toContain('Meaning: Approved as the lab standard for the arm');
+    // The signer by name, e-mail and how the account came to the lab, and the rule it was checked against.
+    expect(detail.textContent).toContain('Dana Whitcombe (reviewer@harborridge.test)');
+    expect(detail.textContent).toContain('added by the operator (seeded or created outside Plumbline) on 2026-11-20, not by an invitation');
+    expect(screen.getByTestId('signature-rule').textContent).toMatch(/^No one may decide a review who submitted it/);
     expect(screen.getByTestId('standard-report').getAttribute('href')).toBe('/reports/standard/std-1');
     await press('button', 'Retire this standard…');
     expect(await screen.findByRole('dialog', { name: 'Retire this standard?' })).toBeTruthy();

@@ -39,7 +39,7 @@ export function study(over: Partial<Study> = {}): Study {
     ],
     seeds: 2, baseSeed: 1,
     progress: { status: 'finished', done: 4, failed: 0, total: 4, currentScenario: null, etaSeconds: null },
-    engineVersion: '1.0.0', pass: false, error: null, createdBy: person, createdAt: at, startedAt: at, finishedAt: at + 5000,
+    engineVersion: '1.0.0', pass: false, error: null, createdBy: person, createdAt: at, startedAt: at, finishedAt: at + 5000, adaptive: null,
     ...over,
   });
 }
@@ -49,7 +49,7 @@ export const runningStudy = (done: number) =>
 
 const criterion = (id: string, label: string, limit: number, observed: number, unit: string, pass: boolean) => ({ id, label, limit, observed, unit, pass, worstLineHz: 741 });
 const scenarioResult = (scenarioId: string, name: string, pass: boolean, magnitude: number, phase: number) => ({
-  scenarioId, scenarioVersion: 1, name, seeds: 2, failedRuns: 0, reference: 'linear-frf', referenceNote: null, warnings: [], plain: null, pass,
+  scenarioId, scenarioVersion: 1, name, seeds: 2, failedRuns: 0, reference: 'linear-frf', referenceNote: null, warnings: [], plain: null, pass, adaptive: null,
   criteria: [
     criterion('magnitude-p95', 'Magnitude error, 95th percentile of |error|', 0.5, magnitude, 'dB', magnitude <= 0.5),
     criterion('phase-p95', 'Phase error, 95th percentile of |error|', 3, phase, '°', phase <= 3),

@@ -65,9 +65,11 @@ function ReportBody({ content: c, record, trail }: { content: ReportContent; rec
       {c.justification ? <Panel title="Justification"><AppText variant="body">{c.justification}</AppText></Panel> : null}
       {c.signature ? (
         <Panel title="Signature">
-          <FactRow label="Reviewer" text={c.signature.reviewer.displayName} />
+          <FactRow label="Reviewer" text={`${c.signature.signer.displayName} (${c.signature.signer.email})`} />
+          <FactRow label="In the lab by" text={c.signature.signer.origin.text} />
           <FactRow label="Signed" text={formatDateTime(c.signature.signedAt)} />
           <AppText variant="body">{`Meaning: ${c.signature.meaning}`}</AppText>
+          <AppText variant="small" tone="muted" testID="signature-rule">{c.signature.rule}</AppText>
           <AppText variant="label" tone="muted" selectable>{`evidence sha256 ${c.signature.evidenceSha256}`}</AppText>
           <AppText variant="label" tone="muted" selectable>{`signature sha256 ${c.signature.signatureSha256}`}</AppText>
         </Panel>

@@ -62,10 +62,12 @@ function StandardBody({ labId, standard: s }: { labId: string; standard: Standar
       </Panel>
       {s.settings ? <SettingsSummaryPanel summary={s.settings} title="Settings signed off" /> : null}
       <Panel title="Signature">
-        <FactRow label="Reviewer" text={s.signature.reviewer.displayName} />
+        <FactRow label="Reviewer" text={`${s.signature.signer.displayName} (${s.signature.signer.email})`} />
+        <FactRow label="In the lab by" text={s.signature.signer.origin.text} />
         <FactRow label="Signed" text={formatDateTime(s.signature.signedAt)} />
         <AppText variant="body">{`Meaning: ${s.signature.meaning}`}</AppText>
         {s.signature.comment ? <AppText variant="body">{`Comment: ${s.signature.comment}`}</AppText> : null}
+        <AppText variant="small" tone="muted" testID="signature-rule">{s.signature.rule}</AppText>
         <AppText variant="label" tone="muted" selectable>{`evidence sha256 ${s.signature.evidenceSha256}`}</AppText>
       </Panel>
       <View style={styles.links}>
