@@ -9,7 +9,7 @@ import { act } from 'react';
 import { settingsSummary } from '@/shared/api/settings-summary';
 import type { Recipe } from '@/shared/engine/recipe';
 import { renderApp, setWindowWidth } from './support/app';
-import { decided, evidence, installEvidenceApi, lab, meAs, ok, page, session, standard, submission } from './studies-fixtures';
+import { decided, evidence, installEvidenceApi, lab, meAs, ok, page, session, signer, standard, submission } from './studies-fixtures';
 
 jest.mock('expo-font', () => ({ useFonts: () => [true, null] }));
 jest.mock('react-native-web/dist/exports/useWindowDimensions', () => ({ __esModule: true, default: jest.fn() }));
@@ -43,7 +43,7 @@ const returnedBy = (sub: ReturnType<typeof submission>) =>
     ...sub,
     status: 'returned',
     recipe: { ...sub.recipe, state: 'returned' },
-    decision: { id: 'dec-2', decision: 'returned', reviewer: { id: 'user-reviewer', displayName: 'Dana Whitcombe' }, meaning: null, comment: '', reason: 'Add a study with noise on the force channel.',
+    decision: { id: 'dec-2', decision: 'returned', reviewer: { id: 'user-reviewer', displayName: 'Dana Whitcombe' }, signer, meaning: null, comment: '', reason: 'Add a study with noise on the force channel.',
       decidedAt: sub.submittedAt + 60_000, engineVersion: '1.0.0', evidenceSha256: 'a'.repeat(64), signatureSha256: 'b'.repeat(64) },
   });
 
